@@ -28,3 +28,6 @@ export const idSchema = z.coerce
   .number({ error: 'Expected a number.' })
   .int('Expected a whole number.')
   .positive('Expected a positive id.');
+
+/** Route parameters of a single-resource path such as /api/users/:id. */
+export const idParamsSchema = z.strictObject({ id: idSchema });

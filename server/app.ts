@@ -1,0 +1,73 @@
+/**
+ * The Express app, without listening: server/index.ts listens, tests use supertest on it.
+ * Order: security headers → JSON body → session → passport → API routes → client → errors.
+ */
+import { existsSync } from 'node:fs';
+import path from 'node:path';
+import express from 'express';
+import session from 'express-session';
+import helmet from 'helmet';
+import { configurePassport } from './auth/passport';
+import { PROJECT_ROOT } from './config';
+import type { AppContext } from './context';
+import { errorHandler, HttpError } from './http/errors';
+import { authRoutes, SESSION_COOKIE } from './routes/auth';
+import { healthRoutes } from './routes/health';
+import { mailMessageRoutes } from './routes/mail-messages';
+import { userRoutes } from './routes/users';
+
+export const CLIENT_DIR = path.join(PROJECT_ROOT, 'dist');
+const SESSION_HOURS = 12;
+
+export function createApp(ctx: AppContext) {
+  const { config } = ctx;
+  const secure = config.appUrl.startsWith('https://');
+  const app = express();
+  app.disable('x-powered-by');
+  app.set('trust proxy', config.trustProxy);
+
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        directives: {
+          // Helmet adds upgrade-insecure-requests; over plain http on loopback it would break every fetch.
+          upgradeInsecureRequests: secure ? [] : null,
+          imgSrc: ["'self'", 'data:', 'blob:'],
+        },
+      },
+    }),
+  );
+  app.use(express.json({ limit: '100kb' }));
+  app.use(
+    session({
+      name: SESSION_COOKIE,
+      store: ctx.sessionStore,
+      secret: config.sessionSecret,
+      resave: false,
+      saveUninitialized: false,
+      rolling: true,
+      proxy: secure,
+      cookie: { httpOnly: true, sameSite: 'lax', secure, maxAge: SESSION_HOURS * 3_600_000 },
+    }),
+  );
+  const passport = configurePassport();
+  app.use(passport.initialize());
+  app.use(passport.session());
+
+  const api = express.Router();
+  api.use('/auth', authRoutes(ctx));
+  api.use(healthRoutes(ctx));
+  api.use(userRoutes(ctx));
+  api.use(mailMessageRoutes());
+  api.use((req, _res, next) => next(new HttpError(404, 'not_found', `No API route for ${req.method} ${req.path}.`)));
+  app.use('/api', api);
+
+  if (existsSync(path.join(CLIENT_DIR, 'index.html'))) {
+    app.use(express.static(CLIENT_DIR, { index: false, maxAge: '1h' }));
+    // The client routes in the browser: every other GET gets the app's page.
+    app.get('/{*splat}', (_req, res) => res.sendFile(path.join(CLIENT_DIR, 'index.html')));
+  }
+
+  app.use(errorHandler);
+  return app;
+}

@@ -1,0 +1,9 @@
+import type { Migration } from '../migrate';
+import { demoOrganization, type DemoOptions } from './0001-demo-organization';
+
+export type { DemoOptions };
+
+/** Demo data, in order. They run once, and only on a database without users. */
+export function demoSeeders(options: DemoOptions): Migration[] {
+  return [demoOrganization(options)];
+}

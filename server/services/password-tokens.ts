@@ -1,0 +1,67 @@
+/**
+ * One-time links to choose a password: a forgotten-password reset or an invitation to a new
+ * account. The raw token only travels in the e-mail; the database keeps its SHA-256 hash.
+ * Using a token is one atomic UPDATE, so a link works once even under concurrent clicks.
+ */
+import { createHash, randomBytes } from 'node:crypto';
+import { Op, type Transaction } from 'sequelize';
+import { hashPassword } from '../auth/passwords';
+import type { AppContext } from '../context';
+import { PasswordToken, User } from '../db/models';
+import type { PasswordTokenPurpose } from '../db/models/password-token';
+import { HttpError } from '../http/errors';
+import { invitationEmail, passwordResetEmail } from './emails';
+import { endSessionsOf } from './sessions';
+
+export const RESET_MINUTES = 30;
+export const INVITATION_HOURS = 72;
+
+const hashToken = (token: string) => createHash('sha256').update(token).digest('hex');
+
+/** Issues a token (and retires the user's earlier unused ones of the same purpose). */
+export async function issuePasswordToken(userId: number, purpose: PasswordTokenPurpose, transaction?: Transaction): Promise<string> {
+  const token = randomBytes(32).toString('base64url');
+  const ttlMs = purpose === 'reset' ? RESET_MINUTES * 60_000 : INVITATION_HOURS * 3_600_000;
+  await PasswordToken.update({ usedAt: new Date() }, { where: { userId, purpose, usedAt: null }, transaction });
+  await PasswordToken.create({ userId, purpose, tokenHash: hashToken(token), expiresAt: new Date(Date.now() + ttlMs), usedAt: null }, { transaction });
+  return token;
+}
+
+export const passwordLink = (appUrl: string, token: string, purpose: PasswordTokenPurpose) =>
+  `${appUrl}/reset-password?token=${token}${purpose === 'invitation' ? '&invited=1' : ''}`;
+
+/** Sends a reset link when an active account has this e-mail; says nothing either way. */
+export async function requestPasswordReset({ config, mailer }: AppContext, email: string): Promise<void> {
+  const user = await User.findOne({ where: { email, active: true } });
+  if (!user) return;
+  const token = await issuePasswordToken(user.id, 'reset');
+  await mailer.send(passwordResetEmail(user.email, user.name, passwordLink(config.appUrl, token, 'reset'), RESET_MINUTES));
+}
+
+export const INVALID_TOKEN_MESSAGE = 'This link has already been used or has expired. Ask for a new one.';
+
+/** Sets a new password from a token: the token is spent, and every session of the account ends. */
+export async function confirmPasswordReset({ config, sequelize }: AppContext, token: string, password: string): Promise<void> {
+  const passwordHash = await hashPassword(password, config.bcryptCost);
+  await sequelize.transaction(async (transaction) => {
+    const [count, spent] = await PasswordToken.update(
+      { usedAt: new Date() },
+      {
+        where: { tokenHash: hashToken(token), usedAt: null, expiresAt: { [Op.gt]: new Date() } },
+        returning: true,
+        transaction,
+      },
+    );
+    if (count !== 1) throw new HttpError(400, 'invalid_token', INVALID_TOKEN_MESSAGE);
+    const userId = spent[0].userId;
+    const [updated] = await User.update({ passwordHash }, { where: { id: userId, active: true }, transaction });
+    if (updated !== 1) throw new HttpError(400, 'invalid_token', INVALID_TOKEN_MESSAGE);
+    await PasswordToken.update({ usedAt: new Date() }, { where: { userId, usedAt: null }, transaction });
+    await endSessionsOf(userId, transaction);
+  });
+}
+
+export async function sendInvitation({ config, mailer }: AppContext, user: User, transaction?: Transaction) {
+  const token = await issuePasswordToken(user.id, 'invitation', transaction);
+  await mailer.send(invitationEmail(user.email, user.name, passwordLink(config.appUrl, token, 'invitation'), INVITATION_HOURS));
+}

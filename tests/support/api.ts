@@ -1,0 +1,53 @@
+/** An app for supertest against the real test database and mail sink of the api project. */
+import { inject } from 'vitest';
+import request from 'supertest';
+import { createApp } from '../../server/app';
+import { loadConfig } from '../../server/config';
+import { closeContext, createContext, type AppContext } from '../../server/context';
+import { DEMO_DOMAIN } from '../../server/db/seeders/0001-demo-organization';
+import { MailMessage } from '../../server/db/models';
+import type { Role } from '../../shared/schemas';
+import { testEnv } from './test-env';
+
+export const demoEmail = (account: Role | 'operator1' | 'operator2') => `${account === 'operator' ? 'operator1' : account}@${DEMO_DOMAIN}`;
+
+export interface TestApp {
+  app: ReturnType<typeof createApp>;
+  ctx: AppContext;
+  close(): Promise<void>;
+}
+
+export function createTestApp(env: Record<string, string> = {}): TestApp {
+  const config = loadConfig(testEnv(env));
+  const ctx = createContext(config, { databaseUrl: inject('databaseUrl'), smtpUrl: inject('smtpUrl') });
+  return { app: createApp(ctx), ctx, close: () => closeContext(ctx) };
+}
+
+/** A supertest agent (keeps cookies) signed in as a demo account. */
+export async function signedInAgent(app: TestApp['app'], account: Parameters<typeof demoEmail>[0]) {
+  const agent = request.agent(app);
+  await agent.post('/api/auth/sign-in').send({ email: demoEmail(account), password: inject('demoPassword') }).expect(200);
+  return agent;
+}
+
+/** Clears the rate-limit counters so that one test's failures do not limit the next. */
+export async function resetRateLimits(ctx: AppContext) {
+  await ctx.sequelize.query('DELETE FROM rate_limit_hits');
+}
+
+/** The newest message the sink captured for an address, waiting briefly for delivery. */
+export async function latestMailTo(address: string, after = new Date(0), waitMs = 5000): Promise<MailMessage> {
+  for (let waited = 0; waited <= waitMs; waited += 100) {
+    const found = await MailMessage.findOne({ where: { envelopeTo: address }, order: [['id', 'DESC']] });
+    if (found && found.receivedAt > after) return found;
+    await new Promise((r) => setTimeout(r, 100));
+  }
+  throw new Error(`No mail reached ${address}`);
+}
+
+/** The one-time token in a password link of a captured message. */
+export function tokenFrom(message: MailMessage): string {
+  const match = /reset-password\?token=([A-Za-z0-9_-]{43})/.exec(message.textBody ?? '');
+  if (!match) throw new Error('No password link in the message');
+  return match[1];
+}

@@ -1,0 +1,53 @@
+/**
+ * Once per vitest project that talks to the database (api, e2e): a database of its own in the
+ * project-local cluster, recreated each run, migrated and seeded with the demo data; the local
+ * mail sink; and for e2e the built client served by a real server. Tests read these with inject().
+ */
+import type { TestProject } from 'vitest/node';
+import { loadConfig } from '../../server/config';
+import { createDatabase } from '../../server/db';
+import { migrate, seedDemo } from '../../server/db/migrate';
+import { startMailSink } from '../../server/fakes/mail-sink';
+import { startServer, type RunningServer } from '../../server/index';
+import { ensureDebianPackage } from '../../server/scripts/apt';
+import { buildClientIfStale } from '../../server/scripts/client-build';
+import { freshTestDatabase } from '../../server/scripts/database';
+import { testEnv } from './test-env';
+
+declare module 'vitest' {
+  export interface ProvidedContext {
+    databaseUrl: string;
+    smtpUrl: string;
+    baseUrl: string;
+    demoPassword: string;
+  }
+}
+
+export default async function setup(project: TestProject) {
+  const config = loadConfig(testEnv());
+  const databaseUrl = await freshTestDatabase(config, `driftproof_test_${project.name}`);
+
+  const sequelize = createDatabase(databaseUrl, { poolMax: 3 });
+  await migrate(sequelize);
+  await seedDemo(sequelize, { password: config.demoPassword, bcryptCost: config.bcryptCost });
+
+  const sink = await startMailSink({ port: 0 });
+  const smtpUrl = `smtp://127.0.0.1:${sink.port}`;
+  let server: RunningServer | undefined;
+  if (project.name === 'e2e') {
+    ensureDebianPackage('chromium', '/usr/bin/chromium');
+    buildClientIfStale();
+    server = await startServer({ ...config, port: 0 }, { databaseUrl, smtpUrl });
+  }
+
+  project.provide('databaseUrl', databaseUrl);
+  project.provide('smtpUrl', smtpUrl);
+  project.provide('baseUrl', server?.url ?? '');
+  project.provide('demoPassword', config.demoPassword);
+
+  return async () => {
+    await server?.close();
+    await sink.close();
+    await sequelize.close();
+  };
+}
