@@ -13,7 +13,8 @@ const config = loadConfig();
 const log = (line: string) => console.log(`[driftproof] ${line}`);
 
 const databaseUrl = await resolveDatabaseUrl(config, log);
-buildClientIfStale(log);
+// `npm run dev` serves the client from Vite instead.
+if (!process.env.DRIFTPROOF_DEV) buildClientIfStale(log);
 
 let smtpUrl = config.smtpUrl;
 let closeSink = async () => {};
