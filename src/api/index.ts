@@ -1,0 +1,228 @@
+/**
+ * The one typed module the client uses to talk to the Driftproof API (same origin, JSON,
+ * cookie session). Every failure becomes an ApiError with the server's code and message.
+ */
+import type {
+  ApiErrorBody,
+  CapturedMail,
+  CapturedMailSummary,
+  Organization,
+  Page,
+  PasswordResetConfirm,
+  PasswordResetRequest,
+  PublicUser,
+  Role,
+  SignIn,
+  UserCreate,
+  UserUpdate,
+  USER_SORT_FIELDS,
+} from '@shared/schemas';
+
+/** Codes the client itself gives to failures that never reached a JSON answer. */
+export const CLIENT_ERROR_CODES = {
+  network: 'network_error',
+  http: 'http_error',
+  badResponse: 'bad_response',
+} as const;
+
+export class ApiError extends Error {
+  override readonly name = 'ApiError';
+  /** HTTP status; 0 when the server could not be reached at all. */
+  readonly status: number;
+  readonly code: string;
+  /** Field path → message, for validation errors. */
+  readonly fields: Record<string, string>;
+
+  constructor(status: number, code: string, message: string, fields: Record<string, string> = {}) {
+    super(message);
+    this.status = status;
+    this.code = code;
+    this.fields = fields;
+  }
+
+  /** The message for one field, if the server sent one. */
+  field(name: string): string | undefined {
+    return this.fields[name];
+  }
+}
+
+export function isApiError(value: unknown): value is ApiError {
+  return value instanceof ApiError;
+}
+
+/** A message fit to show a person, whatever was thrown. */
+export function errorMessage(error: unknown): string {
+  if (isApiError(error)) return error.message;
+  return 'Something went wrong. Try again in a moment.';
+}
+
+function isApiErrorBody(value: unknown): value is ApiErrorBody {
+  if (typeof value !== 'object' || value === null) return false;
+  const error = (value as { error?: unknown }).error;
+  return (
+    typeof error === 'object' &&
+    error !== null &&
+    typeof (error as { code?: unknown }).code === 'string' &&
+    typeof (error as { message?: unknown }).message === 'string'
+  );
+}
+
+type QueryValue = string | number | boolean | null | undefined;
+
+export function buildQuery(query: Record<string, QueryValue> | undefined): string {
+  if (!query) return '';
+  const params = new URLSearchParams();
+  for (const [key, value] of Object.entries(query)) {
+    if (value === undefined || value === null || value === '') continue;
+    params.set(key, String(value));
+  }
+  const text = params.toString();
+  return text ? `?${text}` : '';
+}
+
+export interface RequestOptions {
+  body?: unknown;
+  query?: Record<string, QueryValue>;
+  signal?: AbortSignal;
+}
+
+let unauthenticatedHandler: ((path: string) => void) | null = null;
+
+/**
+ * Called when an API call (other than the session and sign-in calls themselves) answers 401:
+ * the session ended, for example because it expired or the account was deactivated.
+ */
+export function onUnauthenticated(handler: ((path: string) => void) | null): void {
+  unauthenticatedHandler = handler;
+}
+
+const SESSION_PATHS = ['/api/auth/me', '/api/auth/sign-in', '/api/auth/sign-out'];
+
+export async function request<T>(method: string, path: string, options: RequestOptions = {}): Promise<T> {
+  const headers: Record<string, string> = { Accept: 'application/json' };
+  const init: RequestInit = { method, headers, credentials: 'same-origin', signal: options.signal };
+  if (options.body !== undefined) {
+    headers['Content-Type'] = 'application/json';
+    init.body = JSON.stringify(options.body);
+  }
+
+  let response: Response;
+  try {
+    response = await fetch(path + buildQuery(options.query), init);
+  } catch (cause) {
+    if (cause instanceof DOMException && cause.name === 'AbortError') throw cause;
+    throw new ApiError(
+      0,
+      CLIENT_ERROR_CODES.network,
+      'Driftproof could not reach the server. Check your connection and try again.',
+    );
+  }
+
+  if (response.status === 204 || response.status === 205) return undefined as T;
+
+  const text = await response.text();
+  let data: unknown = undefined;
+  if (text) {
+    try {
+      data = JSON.parse(text);
+    } catch {
+      data = undefined;
+    }
+  }
+
+  if (response.ok) {
+    if (text && data === undefined) {
+      throw new ApiError(
+        response.status,
+        CLIENT_ERROR_CODES.badResponse,
+        'The server sent an answer Driftproof could not read. Try again in a moment.',
+      );
+    }
+    return data as T;
+  }
+
+  let error: ApiError;
+  if (isApiErrorBody(data)) {
+    error = new ApiError(response.status, data.error.code, data.error.message, data.error.fields ?? {});
+  } else {
+    error = new ApiError(
+      response.status,
+      CLIENT_ERROR_CODES.http,
+      response.status >= 500
+        ? `The server had a problem (HTTP ${response.status}). Try again in a moment.`
+        : `The request failed (HTTP ${response.status}).`,
+    );
+  }
+  if (response.status === 401 && !SESSION_PATHS.includes(path) && unauthenticatedHandler) {
+    unauthenticatedHandler(path);
+  }
+  throw error;
+}
+
+// ---------------------------------------------------------------------------------------
+// Endpoints
+
+export type UserSortField = (typeof USER_SORT_FIELDS)[number];
+export type SortOrder = 'asc' | 'desc';
+
+export interface UserListParams {
+  page?: number;
+  pageSize?: number;
+  sortField?: UserSortField;
+  sortOrder?: SortOrder;
+  q?: string;
+  role?: Role;
+  status?: 'active' | 'inactive';
+}
+
+export interface MailListParams {
+  page?: number;
+  pageSize?: number;
+  q?: string;
+}
+
+export interface Health {
+  status: 'ok' | 'degraded';
+  database: 'up' | 'down';
+}
+
+export const authApi = {
+  me: (signal?: AbortSignal) => request<{ user: PublicUser }>('GET', '/api/auth/me', { signal }),
+  signIn: (body: SignIn) => request<{ user: PublicUser }>('POST', '/api/auth/sign-in', { body }),
+  signOut: () => request<void>('POST', '/api/auth/sign-out'),
+  requestPasswordReset: (body: PasswordResetRequest) =>
+    request<{ message: string }>('POST', '/api/auth/password-reset', { body }),
+  confirmPasswordReset: (body: PasswordResetConfirm) =>
+    request<void>('POST', '/api/auth/password-reset/confirm', { body }),
+};
+
+export const healthApi = {
+  get: () => request<Health>('GET', '/api/health'),
+};
+
+export const usersApi = {
+  list: (params: UserListParams = {}, signal?: AbortSignal) =>
+    request<Page<PublicUser>>('GET', '/api/users', { query: { ...params }, signal }),
+  create: (body: UserCreate) => request<{ user: PublicUser }>('POST', '/api/users', { body }),
+  update: (id: number, body: UserUpdate) =>
+    request<{ user: PublicUser }>('PATCH', `/api/users/${encodeURIComponent(id)}`, { body }),
+};
+
+export const organizationsApi = {
+  list: () => request<{ items: Organization[] }>('GET', '/api/organizations'),
+};
+
+export const mailApi = {
+  list: (params: MailListParams = {}, signal?: AbortSignal) =>
+    request<Page<CapturedMailSummary>>('GET', '/api/mail-messages', { query: { ...params }, signal }),
+  get: (id: number) => request<{ message: CapturedMail }>('GET', `/api/mail-messages/${encodeURIComponent(id)}`),
+};
+
+/** All endpoints, grouped by resource. */
+export const api = {
+  auth: authApi,
+  health: healthApi,
+  users: usersApi,
+  organizations: organizationsApi,
+  mail: mailApi,
+};

@@ -1,0 +1,45 @@
+import { ROLE_LABELS, type Role } from '@shared/schemas';
+
+/** Where each role lands after signing in, and what `/` means for them. */
+export const ROLE_HOMES: Record<Role, string> = {
+  admin: '/admin',
+  employer: '/employer',
+  operator: '/operator',
+  assessor: '/assessor',
+  hr: '/hr',
+};
+
+export function roleHome(role: Role): string {
+  return ROLE_HOMES[role];
+}
+
+/** The heading of a role's home page, e.g. "Operator home". */
+export function homeHeading(role: Role): string {
+  return `${ROLE_LABELS[role]} home`;
+}
+
+export interface NavLink {
+  label: string;
+  to: string;
+  icon: string;
+}
+
+/** The links in the app shell: only the pages that role may open. */
+export function navigationFor(role: Role): NavLink[] {
+  const home: NavLink = { label: 'Home', to: roleHome(role), icon: 'pi pi-home' };
+  if (role === 'admin') {
+    return [
+      home,
+      { label: 'Users', to: '/admin/users', icon: 'pi pi-users' },
+      { label: 'Mail sink', to: '/admin/mail', icon: 'pi pi-envelope' },
+    ];
+  }
+  return [home];
+}
+
+/** "Administrator", "Employer and HR", "Operator, Assessor and HR". */
+export function describeRoles(roles: readonly Role[]): string {
+  const labels = roles.map((role) => ROLE_LABELS[role]);
+  if (labels.length <= 1) return labels[0] ?? '';
+  return `${labels.slice(0, -1).join(', ')} and ${labels[labels.length - 1]}`;
+}
