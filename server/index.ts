@@ -31,8 +31,11 @@ export async function startServer(config: Config, urls: { databaseUrl: string; s
     url: `http://${config.host}:${port}`,
     port,
     async close() {
-      await new Promise<void>((resolve) => server.close(() => resolve()));
-      server.closeAllConnections();
+      const closed = new Promise<void>((resolve) => server.close(() => resolve()));
+      server.closeIdleConnections();
+      await closed;
+      // Session writes that a finished response started may still be on their way.
+      await new Promise((resolve) => setTimeout(resolve, 100));
       await closeContext(ctx);
     },
   };
