@@ -8,7 +8,7 @@ import { notFound } from '../http/errors';
 
 export async function listMailMessages(query: MailListQuery): Promise<Page<CapturedMailSummary>> {
   const where: WhereOptions<MailMessage> = query.q
-    ? { [Op.or]: [{ subject: { [Op.iLike]: containsPattern(query.q) } }, { toHeader: { [Op.iLike]: containsPattern(query.q) } }] }
+    ? { [Op.or]: [{ subject: { [Op.iLike]: containsPattern(query.q) } }, { toHeader: { [Op.iLike]: containsPattern(query.q) } }, { fromHeader: { [Op.iLike]: containsPattern(query.q) } }] }
     : {};
   const { rows, count } = await MailMessage.findAndCountAll({
     where,
