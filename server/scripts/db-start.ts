@@ -4,4 +4,4 @@ import { localCluster } from './database';
 
 const config = loadConfig();
 const cluster = await localCluster(config);
-console.log(`PostgreSQL 15 is running on ${cluster.host}:${cluster.port} (data in ${config.dataDir}/pg).`);
+console.log(`PostgreSQL 15 is running on ${cluster.host}:${cluster.port} (data in ${cluster.dataDir}).`);
