@@ -6,7 +6,7 @@ import { lnGamma, regularizedGammaP } from './gamma';
 
 /**
  * CDF of the chi-square distribution with `dof` degrees of freedom: P(dof/2, x/2)
- * (Abramowitz & Stegun, Handbook of Mathematical Functions, 1964, 26.4.19). For 2 dof this is
+ * (Abramowitz & Stegun, Handbook of Mathematical Functions, 1964, §26.4). For 2 dof this is
  * exactly 1 − exp(−x/2).
  */
 export function chiSquareCdf(x: number, dof: number): number {
@@ -15,7 +15,7 @@ export function chiSquareCdf(x: number, dof: number): number {
   return regularizedGammaP(0.5 * dof, 0.5 * x);
 }
 
-/** Density of the chi-square distribution (Abramowitz & Stegun 1964, 26.4.1). */
+/** Density of the chi-square distribution (Abramowitz & Stegun 1964, §26.4). */
 export function chiSquarePdf(x: number, dof: number): number {
   if (!(x > 0)) return dof === 2 && x === 0 ? 0.5 : 0;
   const k = 0.5 * dof;

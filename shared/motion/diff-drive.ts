@@ -57,7 +57,7 @@ export function wheelDiameterFactors(ed: number): WheelTicks {
  * Encoder ticks produced when the wheel controller executes the command (v, w) for dt seconds
  * with the robot's NOMINAL geometry: each wheel turns by (v ∓ w·b/2)·dt / r radians
  * (differential-drive inverse kinematics, e.g. R. Siegwart, I. R. Nourbakhsh & D. Scaramuzza,
- * Introduction to Autonomous Mobile Robots, 2nd ed., 2011, §3.2), quantised to whole ticks.
+ * Introduction to Autonomous Mobile Robots, 2nd ed., 2011, ch. 3), quantised to whole ticks.
  * The unrounded part is returned as `remainder` and added on the next call, so quantisation
  * never accumulates beyond half a tick.
  */
@@ -82,7 +82,7 @@ export function wheelTicksFromCommand(
  * r scaled by {@link wheelDiameterFactors}(Ed), wheelbase b·Eb; then ds = (d_R + d_L)/2,
  * dtheta = (d_R − d_L)/b, and the exact arc of {@link moveOnArc} (the midpoint formula of
  * J. Borenstein, H. R. Everett & L. Feng, "Where am I?" Sensors and methods for mobile robot
- * positioning, Univ. of Michigan, 1996, §1.1, taken to its exact constant-curvature form).
+ * positioning, Univ. of Michigan, 1996, taken to its exact constant-curvature form).
  *
  * With the default `errors` (Ed = Eb = 1) this is the robot's odometry; with the hidden
  * systematic errors it is the motion the wheels really produced.

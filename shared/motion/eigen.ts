@@ -17,9 +17,9 @@ export interface Eigen2 {
 /**
  * Eigen-decomposition of the symmetric matrix [[a, b], [b, c]] in closed form:
  * lambda = (a + c)/2 ± sqrt(((a − c)/2)² + b²), principal direction phi = atan2(2b, a − c)/2
- * (e.g. G. Strang, Linear Algebra and Its Applications, §5.1; the rotation angle is the one of
- * Jacobi's method, C. G. J. Jacobi 1846). The off-diagonal is taken as the mean of m[0][1] and
- * m[1][0].
+ * (the 2-by-2 symmetric Schur decomposition of Jacobi's method: C. G. J. Jacobi 1846; G. H. Golub
+ * & C. F. Van Loan, Matrix Computations, 4th ed., 2013, ch. 8). The off-diagonal is taken as the
+ * mean of m[0][1] and m[1][0].
  */
 export function eigenSymmetric2(m: Matrix2): Eigen2 {
   const a = m[0][0];

@@ -19,9 +19,9 @@ export interface Ellipse {
 /**
  * The ellipse that holds probability `p` of a 2-D normal with covariance `cov2`:
  * {x : xᵀ·cov2⁻¹·x ≤ q} with q the chi-square quantile with 2 dof, q = −2·ln(1 − p);
- * semi-axes sqrt(q·lambda_i) along the eigenvectors (T. W. Anderson, An Introduction to
- * Multivariate Statistical Analysis, 3rd ed., 2003, §3.3; R. A. Johnson & D. W. Wichern,
- * Applied Multivariate Statistical Analysis, 6th ed., 2007, §4.2). The confidence ring is
+ * semi-axes sqrt(q·lambda_i) along the eigenvectors (R. A. Johnson & D. W. Wichern, Applied
+ * Multivariate Statistical Analysis, 6th ed., 2007, ch. 4: the constant-density contours of the
+ * normal and their chi-square probability content). The confidence ring is
  * p = 0.95 (the default). Negative eigenvalues from rounding count as zero.
  */
 export function confidenceEllipse(cov2: Matrix2, p = 0.95): Ellipse {

@@ -119,7 +119,7 @@ export class ParticleCloud {
   /**
    * Mean pose: arithmetic mean of x and y, circular mean of theta,
    * atan2(Σ sin theta_i, Σ cos theta_i) (K. V. Mardia & P. E. Jupp, Directional Statistics,
-   * 2000, §2.2.1).
+   * 2000, ch. 2).
    */
   mean(): Pose {
     const n = this.x.length;

@@ -33,10 +33,11 @@ describe('chi-square quantiles', () => {
     }
   }
 
-  it('2 dof is exactly -2 ln(1 - p)', () => {
-    // Source: the chi-square CDF with 2 dof is 1 − exp(−x/2) (Abramowitz & Stegun 26.4.19).
-    for (const p of [0.1, 0.3934693402873666, 0.95, 0.999]) {
-      expect(chiSquareQuantile(p, 2)).toBe(-2 * Math.log1p(-p));
+  it('2 dof: the quantile of 1 - exp(-k²/2) is k² (the k-sigma ellipse of a 2-D normal)', () => {
+    // Source: the squared Mahalanobis distance of a 2-D normal is chi-square with 2 dof, whose
+    // CDF is 1 − exp(−x/2) (Johnson & Wichern, Applied Multivariate Statistical Analysis, 2007, ch. 4).
+    for (const k of [0.5, 1, 2, 3, 4]) {
+      expect(chiSquareQuantile(1 - Math.exp((-k * k) / 2), 2)).toBeCloseTo(k * k, 10);
     }
   });
 

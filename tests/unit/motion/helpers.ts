@@ -48,8 +48,8 @@ export function meanAndCovariance(columns: Float64Array[]): { mean: number[]; co
 
 /**
  * Standard error of a sample covariance entry cov(a, b) of a normal sample of size n:
- * sqrt((s_aa·s_bb + s_ab²)/n) (T. W. Anderson, An Introduction to Multivariate Statistical
- * Analysis, 3rd ed., 2003, §3.4: Wishart moments).
+ * sqrt((s_aa·s_bb + s_ab²)/n) (moments of the Wishart distribution, e.g. T. W. Anderson, An
+ * Introduction to Multivariate Statistical Analysis, 3rd ed., 2003, ch. 7).
  */
 export function covarianceStandardError(cov: number[][], a: number, b: number, n: number): number {
   return Math.sqrt((cov[a][a] * cov[b][b] + cov[a][b] * cov[a][b]) / n);
