@@ -18,7 +18,7 @@ import type { BenchFigure, BenchModule } from './types';
 const PARTICLES = 10_000;
 const STEPS = 600;
 const COV_STEPS = 6_000;
-const REPEATS = 3;
+const REPEATS = 5;
 const ALPHAS: OdometryAlphas = [0.01, 0.0005, 0.005, 0.0005];
 const SEED = 'bench-motion';
 
@@ -32,14 +32,10 @@ function odometryPath(steps: number): Pose[] {
   return path;
 }
 
-function best(repeats: number, fn: () => void): number {
-  let min = Infinity;
-  for (let r = 0; r < repeats; r++) {
-    const t0 = performance.now();
-    fn();
-    min = Math.min(min, performance.now() - t0);
-  }
-  return min;
+function time(fn: () => void): number {
+  const t0 = performance.now();
+  fn();
+  return performance.now() - t0;
 }
 
 function runCloud(path: Pose[], steps: number, count: number): ParticleCloud {
@@ -92,10 +88,17 @@ export const motionBench: BenchModule = {
     drawNormals(3 * PARTICLES * 20);
     propagate(path, COV_STEPS);
 
-    const tCloud = best(REPEATS, () => runCloud(path, STEPS, PARTICLES));
-    const tPlain = best(REPEATS, () => runPlain(path, STEPS, PARTICLES));
-    const tNormals = best(REPEATS, () => drawNormals(3 * work));
-    const tCov = best(10, () => propagate(path, COV_STEPS));
+    // Interleave the repetitions so that a burst of load elsewhere hits all three alike.
+    let tCloud = Infinity;
+    let tPlain = Infinity;
+    let tNormals = Infinity;
+    for (let r = 0; r < REPEATS; r++) {
+      tCloud = Math.min(tCloud, time(() => runCloud(path, STEPS, PARTICLES)));
+      tPlain = Math.min(tPlain, time(() => runPlain(path, STEPS, PARTICLES)));
+      tNormals = Math.min(tNormals, time(() => drawNormals(3 * work)));
+    }
+    let tCov = Infinity;
+    for (let r = 0; r < 20; r++) tCov = Math.min(tCov, time(() => propagate(path, COV_STEPS)));
 
     // Same seed, same draws: the two implementations must agree exactly.
     const cloud = runCloud(path, 50, 1000);

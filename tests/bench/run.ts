@@ -6,6 +6,7 @@
  * Add a module: create tests/bench/<name>.ts exporting a BenchModule and list it in `modules`.
  * Run a subset: `npm run bench -- motion`.
  */
+import { availableParallelism, loadavg } from 'node:os';
 import type { BenchFigure, BenchModule } from './types';
 import { motionBench } from './motion';
 
@@ -25,7 +26,9 @@ async function main(): Promise<void> {
     process.exitCode = 2;
     return;
   }
-  console.log(`node ${process.version}, ${process.platform}/${process.arch}`);
+  const load = loadavg().map((l) => l.toFixed(2)).join(' ');
+  console.log(`node ${process.version}, ${process.platform}/${process.arch}, ${availableParallelism()} cores, load average ${load}`);
+  console.log('(wall-clock figures: other work on the machine slows them down; rerun on a quiet machine)');
   let met = 0;
   let targets = 0;
   for (const m of selected) {
