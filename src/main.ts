@@ -13,6 +13,7 @@ import './styles/main.css';
 import App from './App.vue';
 import { onUnauthenticated } from './api';
 import { createAppRouter } from './router';
+import { useNoticesStore } from './stores/notices';
 import { useSessionStore } from './stores/session';
 import { themeConfig } from './theme';
 
@@ -25,9 +26,7 @@ app.use(ConfirmationService);
 app.directive('tooltip', Tooltip);
 
 const router = createAppRouter({
-  notify: (message) => {
-    app.config.globalProperties.$toast.add({ severity: 'info', summary: message, life: 5000 });
-  },
+  notify: (message) => useNoticesStore(pinia).push({ severity: 'info', summary: message }),
 });
 app.use(router);
 
