@@ -5,3 +5,4 @@ export * from './users';
 export * from './mail';
 export * from './errors';
 export * from './organizations';
+export * from './content';
