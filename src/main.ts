@@ -3,7 +3,6 @@ import { createPinia } from 'pinia';
 import PrimeVue from 'primevue/config';
 import ToastService from 'primevue/toastservice';
 import ConfirmationService from 'primevue/confirmationservice';
-import Tooltip from 'primevue/tooltip';
 
 import '@fontsource/lato/latin-400.css';
 import '@fontsource/lato/latin-700.css';
@@ -23,7 +22,6 @@ app.use(pinia);
 app.use(PrimeVue, { theme: themeConfig, ripple: false });
 app.use(ToastService);
 app.use(ConfirmationService);
-app.directive('tooltip', Tooltip);
 
 const router = createAppRouter({
   notify: (message) => useNoticesStore(pinia).push({ severity: 'info', summary: message }),

@@ -110,6 +110,7 @@ describe('administrator', () => {
 
     await page.goto(url(invitationPath));
     await page.getByRole('heading', { level: 1, name: 'Welcome to Driftproof' }).waitFor();
+    await page.screenshot({ path: join(SCREENSHOTS, 'invitation.png'), animations: 'disabled' });
     await page.getByLabel('Your password').fill('too-short');
     await page.getByLabel('Type it again').fill('too-short');
     await page.getByRole('button', { name: 'Save my password' }).click();
@@ -132,6 +133,35 @@ describe('administrator', () => {
     await page.getByRole('button', { name: 'Save my password' }).click();
     await page.getByRole('heading', { level: 1, name: 'This link no longer works' }).waitFor();
     await page.getByRole('link', { name: 'Request a new link' }).waitFor();
+    expect(errors).toEqual([]);
+    await page.close();
+  });
+
+  it('changes the role after confirming, asking for an organization when the new role needs one', async () => {
+    const { page, errors } = await openPage(browser);
+    await signIn(page, demoEmail('admin'));
+    await page.goto(url('/admin/users'));
+    await page.getByLabel('Search').fill(newUser.email);
+    const row = page.getByRole('row').filter({ hasText: newUser.email });
+    await page.getByRole('table').getByText(demoEmail('operator2')).waitFor({ state: 'detached' });
+
+    // Operator → Assessor: confirmed, and the organization goes.
+    await choose(page, row, `Role of ${newUser.name}`, 'Assessor');
+    const confirm = page.getByRole('alertdialog');
+    await confirm.getByText('from Operator to Assessor').waitFor();
+    await confirm.getByRole('button', { name: 'Make Assessor' }).click();
+    await page.getByText(`${newUser.name} now has the Assessor role`).waitFor();
+    await row.getByText(DEMO_ORGANIZATION).waitFor({ state: 'detached' });
+
+    // Assessor → HR: HR accounts belong to an organization, so one must be chosen first.
+    await choose(page, row, `Role of ${newUser.name}`, 'HR');
+    const dialog = page.getByRole('dialog', { name: 'Choose an organization' });
+    await dialog.getByRole('button', { name: 'Make HR' }).click();
+    await dialog.getByText('Choose the organization this account belongs to.').waitFor();
+    await choose(page, dialog, 'Organization', DEMO_ORGANIZATION);
+    await dialog.getByRole('button', { name: 'Make HR' }).click();
+    await page.getByText(`${newUser.name} now has the HR role`).waitFor();
+    await row.getByText(DEMO_ORGANIZATION).waitFor();
     expect(errors).toEqual([]);
     await page.close();
   });
