@@ -51,6 +51,15 @@ export const chartPaper = {
   950: '#0d1413',
 } as const;
 
+/** Severity colours for notices: information in Deepwater, caution in Signal amber. */
+const severityTokens = (palette: 'deepwater' | 'caution') => ({
+  background: `{${palette}.50}`,
+  borderColor: `{${palette}.200}`,
+  color: `{${palette}.800}`,
+  shadow: `0px 4px 8px 0px color-mix(in srgb, {${palette}.500}, transparent 94%)`,
+  closeButton: { hoverBackground: `{${palette}.100}`, focusRing: { color: `{${palette}.700}`, shadow: 'none' } },
+});
+
 export const DriftproofPreset = definePreset(Aura, {
   primitive: {
     deepwater,
@@ -77,6 +86,16 @@ export const DriftproofPreset = definePreset(Aura, {
       color: '{deepwater.500}',
       offset: '2px',
       shadow: 'none',
+    },
+    // Aura shows focus on fields by border colour alone; we add a visible ring.
+    formField: {
+      focusRing: {
+        width: '2px',
+        style: 'solid',
+        color: '{deepwater.400}',
+        offset: '1px',
+        shadow: 'none',
+      },
     },
     colorScheme: {
       light: {
@@ -108,6 +127,32 @@ export const DriftproofPreset = definePreset(Aura, {
         },
         formField: {
           focusBorderColor: '{deepwater.600}',
+        },
+      },
+    },
+  },
+  components: {
+    toast: {
+      colorScheme: {
+        light: {
+          info: { ...severityTokens('deepwater'), detailColor: '{surface.700}' },
+          warn: { ...severityTokens('caution'), detailColor: '{surface.700}' },
+        },
+      },
+    },
+    message: {
+      colorScheme: {
+        light: {
+          info: {
+            ...severityTokens('deepwater'),
+            outlined: { color: '{deepwater.700}', borderColor: '{deepwater.700}' },
+            simple: { color: '{deepwater.700}' },
+          },
+          warn: {
+            ...severityTokens('caution'),
+            outlined: { color: '{caution.800}', borderColor: '{caution.800}' },
+            simple: { color: '{caution.800}' },
+          },
         },
       },
     },
