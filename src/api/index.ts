@@ -32,12 +32,21 @@ export class ApiError extends Error {
   readonly code: string;
   /** Field path → message, for validation errors. */
   readonly fields: Record<string, string>;
+  /** The server's whole error object (it may carry more, e.g. `expectedSeq`); null if there was none. */
+  readonly body: ApiErrorBody['error'] | null;
 
-  constructor(status: number, code: string, message: string, fields: Record<string, string> = {}) {
+  constructor(
+    status: number,
+    code: string,
+    message: string,
+    fields: Record<string, string> = {},
+    body: ApiErrorBody['error'] | null = null,
+  ) {
     super(message);
     this.status = status;
     this.code = code;
     this.fields = fields;
+    this.body = body;
   }
 
   /** The message for one field, if the server sent one. */
@@ -143,7 +152,7 @@ export async function request<T>(method: string, path: string, options: RequestO
 
   let error: ApiError;
   if (isApiErrorBody(data)) {
-    error = new ApiError(response.status, data.error.code, data.error.message, data.error.fields ?? {});
+    error = new ApiError(response.status, data.error.code, data.error.message, data.error.fields ?? {}, data.error);
   } else {
     error = new ApiError(
       response.status,

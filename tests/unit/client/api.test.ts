@@ -54,6 +54,7 @@ describe('request', () => {
     expect(apiError.message).toBe('Check the form.');
     expect(apiError.fields).toEqual({ email: 'Enter a valid e-mail address.' });
     expect(apiError.field('email')).toBe('Enter a valid e-mail address.');
+    expect(apiError.body?.code).toBe('validation_failed');
   });
 
   it("keeps the server's own message, e.g. for a wrong password or rate limiting", async () => {
