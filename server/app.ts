@@ -11,9 +11,11 @@ import { configurePassport } from './auth/passport';
 import { PROJECT_ROOT } from './config';
 import type { AppContext } from './context';
 import { errorHandler, HttpError } from './http/errors';
+import { attemptRoutes } from './routes/attempts';
 import { authRoutes, SESSION_COOKIE } from './routes/auth';
 import { healthRoutes } from './routes/health';
 import { mailMessageRoutes } from './routes/mail-messages';
+import { trialRoutes } from './routes/trials';
 import { userRoutes } from './routes/users';
 
 export const CLIENT_DIR = path.join(PROJECT_ROOT, 'dist');
@@ -59,6 +61,8 @@ export function createApp(ctx: AppContext) {
   api.use(healthRoutes(ctx));
   api.use(userRoutes(ctx));
   api.use(mailMessageRoutes());
+  api.use(trialRoutes(ctx));
+  api.use(attemptRoutes(ctx));
   api.use((req, _res, next) => next(new HttpError(404, 'not_found', `No API route for ${req.method} ${req.path}.`)));
   app.use('/api', api);
 

@@ -1,7 +1,10 @@
 import connectPgSimple from 'connect-pg-simple';
 import session from 'express-session';
 import type { Sequelize } from 'sequelize';
+import type { DriveSim } from '../shared/sim';
+import { randomBytes } from 'node:crypto';
 import type { Config } from './config';
+import { loadContent, type Content } from './content/load';
 import { createDatabase } from './db';
 import { createMailer, type Mailer } from './services/mailer';
 
@@ -11,12 +14,50 @@ export interface AppContext {
   sequelize: Sequelize;
   mailer: Mailer;
   sessionStore: session.Store;
+  /** Robots, surfaces, trials and levels, validated at start-up. */
+  content: Content;
+  /** Makes the seeds of a new attempt; tests pass a predictable one. */
+  newSeed: () => string;
+  /** Drives rebuilt from their logs, by attempt id: only a cache, checked against the log length. */
+  drives: DriveCache;
+}
+
+export interface DriveCache {
+  get(attemptId: string): { logLength: number; sim: DriveSim } | undefined;
+  set(attemptId: string, entry: { logLength: number; sim: DriveSim }): void;
+  delete(attemptId: string): void;
+}
+
+/** A small least-recently-used map: a web process keeps the drives it served last. */
+export function createDriveCache(limit = 500): DriveCache {
+  const map = new Map<string, { logLength: number; sim: DriveSim }>();
+  return {
+    get(id) {
+      const entry = map.get(id);
+      if (entry) {
+        map.delete(id);
+        map.set(id, entry);
+      }
+      return entry;
+    },
+    set(id, entry) {
+      map.delete(id);
+      map.set(id, entry);
+      if (map.size > limit) map.delete(map.keys().next().value!);
+    },
+    delete: (id) => void map.delete(id),
+  };
+}
+
+export interface ContextOptions {
+  content?: Content;
+  newSeed?: () => string;
 }
 
 const PgSessionStore = connectPgSimple(session);
 
 /** Connects to the database and the SMTP server named by the config and the resolved URLs. */
-export function createContext(config: Config, urls: { databaseUrl: string; smtpUrl: string }): AppContext {
+export function createContext(config: Config, urls: { databaseUrl: string; smtpUrl: string }, options: ContextOptions = {}): AppContext {
   const sequelize = createDatabase(urls.databaseUrl);
   const sessionStore = new PgSessionStore({
     conString: urls.databaseUrl, // the store owns this pool and ends it on close()
@@ -25,7 +66,15 @@ export function createContext(config: Config, urls: { databaseUrl: string; smtpU
     pruneSessionInterval: config.env === 'test' ? false : 15 * 60,
   });
   const mailer = createMailer({ smtpUrl: urls.smtpUrl, from: config.mailFrom });
-  return { config, sequelize, mailer, sessionStore };
+  return {
+    config,
+    sequelize,
+    mailer,
+    sessionStore,
+    content: options.content ?? loadContent(),
+    newSeed: options.newSeed ?? (() => randomBytes(16).toString('hex')),
+    drives: createDriveCache(),
+  };
 }
 
 export async function closeContext(ctx: AppContext) {

@@ -8,6 +8,8 @@ export class HttpError extends Error {
     readonly code: string,
     message: string,
     readonly fields?: Record<string, string>,
+    /** Further facts for the client, e.g. the seq a drive expects next. */
+    readonly details?: Record<string, unknown>,
   ) {
     super(message);
   }
@@ -52,5 +54,5 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, next) => {
     console.error(`${req.method} ${req.originalUrl}:`, err);
     http = new HttpError(500, 'internal_error', 'Something went wrong on our side. Please try again.');
   }
-  res.status(http.status).json({ error: { code: http.code, message: http.message, ...(http.fields ? { fields: http.fields } : {}) } });
+  res.status(http.status).json({ error: { code: http.code, message: http.message, ...(http.fields ? { fields: http.fields } : {}), ...http.details } });
 };

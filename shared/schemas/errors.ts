@@ -5,5 +5,7 @@ export interface ApiErrorBody {
     message: string;
     /** Field path (dot-joined) → message, for validation errors. */
     fields?: Record<string, string>;
+    /** For seq conflicts of a drive: the seq the next batch must start at. */
+    expectedSeq?: number;
   };
 }

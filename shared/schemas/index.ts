@@ -6,3 +6,4 @@ export * from './mail';
 export * from './errors';
 export * from './organizations';
 export * from './content';
+export * from './attempts';

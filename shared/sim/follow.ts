@@ -23,6 +23,7 @@ export interface FollowOptions {
 
 export class PathFollower {
   private progress = 0; // index of the segment the robot was last nearest to
+  private started = false;
   readonly lookahead: number;
   readonly arrival: number;
 
@@ -37,8 +38,11 @@ export class PathFollower {
   /** Nearest point on the path at or after the current progress, and the segment it lies on. */
   private nearest(pose: Pose): { segment: number; point: Point2 } {
     let best = { segment: this.progress, point: this.path[this.progress], d: Infinity };
-    // Looks a few segments ahead only, so a path that doubles back is followed in order.
-    for (let i = this.progress; i < Math.min(this.path.length - 1, this.progress + 3); i++) {
+    // Looks a few segments ahead only, so a path that doubles back is followed in order; the first
+    // time it looks at the whole path, so a robot can join it part way along.
+    const last = this.started ? Math.min(this.path.length - 1, this.progress + 3) : this.path.length - 1;
+    this.started = true;
+    for (let i = this.progress; i < last; i++) {
       const a = this.path[i];
       const b = this.path[i + 1];
       const abx = b.x - a.x;

@@ -3,7 +3,7 @@ import { inject } from 'vitest';
 import request from 'supertest';
 import { createApp } from '../../server/app';
 import { loadConfig } from '../../server/config';
-import { closeContext, createContext, type AppContext } from '../../server/context';
+import { closeContext, createContext, type AppContext, type ContextOptions } from '../../server/context';
 import { DEMO_DOMAIN } from '../../server/db/seeders/0001-demo-organization';
 import { MailMessage } from '../../server/db/models';
 import type { Role } from '../../shared/schemas';
@@ -17,9 +17,9 @@ export interface TestApp {
   close(): Promise<void>;
 }
 
-export function createTestApp(env: Record<string, string> = {}): TestApp {
+export function createTestApp(env: Record<string, string> = {}, options: ContextOptions = {}): TestApp {
   const config = loadConfig(testEnv(env));
-  const ctx = createContext(config, { databaseUrl: inject('databaseUrl'), smtpUrl: inject('smtpUrl') });
+  const ctx = createContext(config, { databaseUrl: inject('databaseUrl'), smtpUrl: inject('smtpUrl') }, options);
   return { app: createApp(ctx), ctx, close: () => closeContext(ctx) };
 }
 

@@ -1,4 +1,5 @@
 import { foundation } from './0001-foundation';
+import { attempts } from './0002-attempts';
 
 /** Every schema change, in order. Add new ones at the end; never edit one that has shipped. */
-export const migrations = [foundation];
+export const migrations = [foundation, attempts];

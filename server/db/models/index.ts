@@ -1,10 +1,13 @@
 import type { Sequelize } from 'sequelize';
+import { Attempt } from './attempt';
+import { AttemptLogEntry } from './attempt-log-entry';
+import { ExamSeatGrant } from './exam-seat-grant';
 import { MailMessage } from './mail-message';
 import { Organization } from './organization';
 import { PasswordToken } from './password-token';
 import { User } from './user';
 
-export { MailMessage, Organization, PasswordToken, User };
+export { Attempt, AttemptLogEntry, ExamSeatGrant, MailMessage, Organization, PasswordToken, User };
 
 /** Registers every model and association on a Sequelize instance. */
 export function initModels(sequelize: Sequelize) {
@@ -12,9 +15,13 @@ export function initModels(sequelize: Sequelize) {
   User.initModel(sequelize);
   PasswordToken.initModel(sequelize);
   MailMessage.initModel(sequelize);
+  Attempt.initModel(sequelize);
+  AttemptLogEntry.initModel(sequelize);
+  ExamSeatGrant.initModel(sequelize);
 
   Organization.hasMany(User, { foreignKey: 'organizationId', as: 'users' });
   User.belongsTo(Organization, { foreignKey: 'organizationId', as: 'organization' });
   User.hasMany(PasswordToken, { foreignKey: 'userId', as: 'passwordTokens' });
   PasswordToken.belongsTo(User, { foreignKey: 'userId', as: 'user' });
+  Attempt.belongsTo(User, { foreignKey: 'userId', as: 'user' });
 }

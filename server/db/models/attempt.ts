@@ -1,0 +1,46 @@
+import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
+import type { DriveStatus } from '../../../shared/sim';
+
+export type AttemptMode = 'practice' | 'exam';
+
+/** One drive of one trial by one operator. The seeds and the log make it replayable. */
+export class Attempt extends Model<InferAttributes<Attempt>, InferCreationAttributes<Attempt>> {
+  declare id: string;
+  declare userId: number;
+  declare organizationId: number | null;
+  declare trialId: string;
+  declare contentHash: string;
+  declare mode: AttemptMode;
+  declare status: CreationOptional<DriveStatus>;
+  /** Seeds the true motion; never leaves the server before submission. */
+  declare secretSeed: string;
+  /** Seeds the drift cloud, which the client draws too. */
+  declare publicSeed: string;
+  declare nextSeq: CreationOptional<number>;
+  declare logLength: CreationOptional<number>;
+  declare submittedAt: Date | null;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+
+  static initModel(sequelize: Sequelize) {
+    Attempt.init(
+      {
+        id: { type: DataTypes.UUID, primaryKey: true },
+        userId: { type: DataTypes.INTEGER, allowNull: false },
+        organizationId: { type: DataTypes.INTEGER, allowNull: true },
+        trialId: { type: DataTypes.TEXT, allowNull: false },
+        contentHash: { type: DataTypes.TEXT, allowNull: false },
+        mode: { type: DataTypes.ENUM('practice', 'exam'), allowNull: false },
+        status: { type: DataTypes.ENUM('driving', 'awaiting_call', 'time_up', 'submitted', 'abandoned'), allowNull: false, defaultValue: 'driving' },
+        secretSeed: { type: DataTypes.TEXT, allowNull: false },
+        publicSeed: { type: DataTypes.TEXT, allowNull: false },
+        nextSeq: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
+        logLength: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
+        submittedAt: { type: DataTypes.DATE, allowNull: true },
+        createdAt: DataTypes.DATE,
+        updatedAt: DataTypes.DATE,
+      },
+      { sequelize, tableName: 'attempts', underscored: true },
+    );
+  }
+}

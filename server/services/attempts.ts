@@ -1,0 +1,273 @@
+/**
+ * Attempts: the server-authoritative drive. Every batch of commands and every call is applied to
+ * the drive and stored in the attempt's log inside one transaction, under a row lock on the
+ * attempt, before the answer goes out. The drive in memory is only a cache: whenever it is
+ * missing or behind the stored log, it is rebuilt by replaying the log.
+ */
+import { randomUUID } from 'node:crypto';
+import { isDeepStrictEqual } from 'node:util';
+import type { Transaction } from 'sequelize';
+import type {
+  AttemptStart,
+  AttemptSummary,
+  AttemptView,
+  BatchResult,
+  CallAnswer,
+  Page,
+  StepBatch,
+} from '../../shared/schemas';
+import type { z } from 'zod';
+import { attemptListQuerySchema } from '../../shared/schemas';
+import { DriveError, DriveSim, type DriveErrorCode, type EstimatePin } from '../../shared/sim';
+import type { AppContext } from '../context';
+import { Attempt, AttemptLogEntry, User } from '../db/models';
+import type { AttemptLogKind } from '../db/models/attempt-log-entry';
+import { HttpError, notFound } from '../http/errors';
+import { takeExamSeat } from './seats';
+import { publicTrial } from './trials';
+
+type Actor = Express.User;
+
+const DRIVE_ERROR_STATUS: Record<DriveErrorCode, number> = {
+  not_driving: 409,
+  awaiting_call: 409,
+  time_up: 409,
+  not_awaiting_call: 409,
+  wrong_call_point: 409,
+  estimate_required: 400,
+  no_marker_in_view: 422,
+};
+
+function asHttp(error: unknown): unknown {
+  if (!(error instanceof DriveError)) return error;
+  const fields = error.code === 'estimate_required' ? { estimate: error.message } : undefined;
+  return new HttpError(DRIVE_ERROR_STATUS[error.code], error.code, error.message, fields);
+}
+
+function summary(attempt: Attempt, ctx: AppContext, userName: string): AttemptSummary {
+  return {
+    id: attempt.id,
+    trialId: attempt.trialId,
+    trialTitle: ctx.content.trials.get(attempt.trialId)?.title ?? attempt.trialId,
+    mode: attempt.mode,
+    status: attempt.status,
+    userId: attempt.userId,
+    userName,
+    organizationId: attempt.organizationId,
+    createdAt: attempt.createdAt.toISOString(),
+    submittedAt: attempt.submittedAt?.toISOString() ?? null,
+  };
+}
+
+/** Starts a drive: practice for free, exam on one of the operator's seats. */
+export async function startAttempt(ctx: AppContext, actor: Actor, input: { trialId: string; mode: 'practice' | 'exam' }): Promise<AttemptStart> {
+  const trial = publicTrial(ctx.content, input.trialId);
+  const attempt = await ctx.sequelize.transaction(async (transaction) => {
+    const created = await Attempt.create(
+      {
+        id: randomUUID(),
+        userId: actor.id,
+        organizationId: actor.organizationId,
+        trialId: trial.id,
+        contentHash: ctx.content.trialHashes.get(trial.id)!,
+        mode: input.mode,
+        secretSeed: ctx.newSeed(),
+        publicSeed: ctx.newSeed(),
+        submittedAt: null,
+      },
+      { transaction },
+    );
+    if (input.mode === 'exam') await takeExamSeat(actor.id, created.id, transaction);
+    return created;
+  });
+  const sim = newDrive(ctx, attempt);
+  ctx.drives.set(attempt.id, { logLength: 0, sim });
+  return { attempt: summary(attempt, ctx, actor.name), publicSeed: attempt.publicSeed, trial, state: sim.state() };
+}
+
+function newDrive(ctx: AppContext, attempt: Attempt): DriveSim {
+  const trial = ctx.content.trials.get(attempt.trialId);
+  if (!trial || ctx.content.trialHashes.get(attempt.trialId) !== attempt.contentHash) {
+    throw new HttpError(409, 'trial_changed', 'This trial has changed since the attempt started, so the drive cannot be rebuilt.');
+  }
+  return new DriveSim({
+    trial,
+    robot: ctx.content.robots.get(trial.robotId)!,
+    surfaces: [...ctx.content.surfaces.values()],
+    secretSeed: attempt.secretSeed,
+  });
+}
+
+/** Applies one stored log entry to a drive being rebuilt. */
+function replay(sim: DriveSim, entry: Pick<AttemptLogEntry, 'kind' | 'request'>) {
+  const request = entry.request as Record<string, unknown>;
+  if (entry.kind === 'steps') sim.applyBatch((request as StepBatch).commands);
+  else if (entry.kind === 'call') {
+    const call = request as CallAnswer;
+    sim.answerCall(call.callPointId, call.call, call.estimate ?? null);
+  } else sim.finish(entry.kind === 'submit' ? 'submitted' : 'abandoned');
+}
+
+/** The drive of an attempt, from the cache when it is up to date with the log, else by replay. */
+async function driveOf(ctx: AppContext, attempt: Attempt, transaction?: Transaction): Promise<DriveSim> {
+  const cached = ctx.drives.get(attempt.id);
+  if (cached && cached.logLength === attempt.logLength) return cached.sim;
+  const sim = newDrive(ctx, attempt);
+  const entries = await AttemptLogEntry.findAll({ where: { attemptId: attempt.id }, order: [['entryNo', 'ASC']], transaction });
+  for (const entry of entries) replay(sim, entry);
+  ctx.drives.set(attempt.id, { logLength: entries.length, sim });
+  return sim;
+}
+
+/** The operator's own attempt, locked for this transaction. Someone else's is "not found". */
+async function lockOwnAttempt(actor: Actor, attemptId: string, transaction: Transaction): Promise<Attempt> {
+  const attempt = await Attempt.findByPk(attemptId, { transaction, lock: transaction.LOCK.UPDATE });
+  if (!attempt || attempt.userId !== actor.id) throw notFound('That attempt');
+  return attempt;
+}
+
+/**
+ * Runs one change to a drive: locks the attempt, brings its drive up to date, applies the change,
+ * appends it to the log and updates the attempt, all in one transaction. On any failure the cached
+ * drive is dropped, so the next request rebuilds it from what was stored.
+ */
+async function changeDrive<T extends object>(
+  ctx: AppContext,
+  actor: Actor,
+  attemptId: string,
+  kind: AttemptLogKind,
+  request: object,
+  apply: (sim: DriveSim, attempt: Attempt, transaction: Transaction) => Promise<T | { stored: unknown }> | T | { stored: unknown },
+  fromSeq: number | null = null,
+): Promise<unknown> {
+  try {
+    return await ctx.sequelize.transaction(async (transaction) => {
+      const attempt = await lockOwnAttempt(actor, attemptId, transaction);
+      const sim = await driveOf(ctx, attempt, transaction);
+      const outcome = await apply(sim, attempt, transaction);
+      if ('stored' in outcome) return outcome.stored;
+      const state = sim.state();
+      await AttemptLogEntry.create({ attemptId, entryNo: attempt.logLength, kind, fromSeq, request, response: outcome }, { transaction });
+      await attempt.update(
+        {
+          logLength: attempt.logLength + 1,
+          nextSeq: state.seq,
+          status: state.status,
+          ...(kind === 'submit' || kind === 'abandon' ? { submittedAt: new Date() } : {}),
+        },
+        { transaction },
+      );
+      ctx.drives.set(attemptId, { logLength: attempt.logLength, sim });
+      return outcome;
+    });
+  } catch (error) {
+    ctx.drives.delete(attemptId);
+    throw asHttp(error);
+  }
+}
+
+/** Compares a request with one stored as jsonb (which reorders object keys). */
+const sameJson = (a: unknown, b: unknown) => isDeepStrictEqual(a, b);
+
+/** Applies a numbered batch of commands. A resent batch gets its stored answer; a gap or a different resend gets 409. */
+export function applySteps(ctx: AppContext, actor: Actor, attemptId: string, batch: StepBatch): Promise<BatchResult> {
+  return changeDrive(
+    ctx,
+    actor,
+    attemptId,
+    'steps',
+    batch,
+    async (sim, attempt, transaction) => {
+      if (batch.fromSeq < attempt.nextSeq) {
+        const stored = await AttemptLogEntry.findOne({ where: { attemptId, kind: 'steps', fromSeq: batch.fromSeq }, transaction });
+        if (stored && sameJson((stored.request as StepBatch).commands, batch.commands)) return { stored: stored.response };
+        throw seqConflict(attempt.nextSeq, 'This batch does not match the one stored for that seq.');
+      }
+      if (batch.fromSeq > attempt.nextSeq) throw seqConflict(attempt.nextSeq, 'Commands are missing before this batch.');
+      return sim.applyBatch(batch.commands);
+    },
+    batch.fromSeq,
+  ) as Promise<BatchResult>;
+}
+
+const seqConflict = (expectedSeq: number, message: string) =>
+  new HttpError(409, 'seq_conflict', `${message} The next batch must start at seq ${expectedSeq}.`, undefined, { expectedSeq });
+
+/** Answers the call point the drive is waiting at. Resending the same answer gets the stored one. */
+export function answerCall(ctx: AppContext, actor: Actor, attemptId: string, answer: CallAnswer): Promise<BatchResult> {
+  return changeDrive(ctx, actor, attemptId, 'call', answer, async (sim, _attempt, transaction) => {
+    const earlier = await AttemptLogEntry.findAll({ where: { attemptId, kind: 'call' }, transaction });
+    const same = earlier.find((e) => (e.request as CallAnswer).callPointId === answer.callPointId);
+    if (same) {
+      if (sameJson(same.request, answer)) return { stored: same.response };
+      throw new HttpError(409, 'call_already_made', 'A different call was already made at this call point.');
+    }
+    return sim.answerCall(answer.callPointId, answer.call, (answer.estimate as EstimatePin | undefined) ?? null);
+  }) as Promise<BatchResult>;
+}
+
+/** Ends the drive: submitted for scoring, or abandoned. Repeating it is harmless. */
+export async function finishAttempt(ctx: AppContext, actor: Actor, attemptId: string, how: 'submit' | 'abandon'): Promise<AttemptView> {
+  await changeDrive(ctx, actor, attemptId, how, {}, (sim, attempt) => {
+    if (attempt.status === 'submitted' || attempt.status === 'abandoned') {
+      if ((how === 'submit') === (attempt.status === 'submitted')) return { stored: null };
+      throw new HttpError(409, 'attempt_over', `This attempt was already ${attempt.status}.`);
+    }
+    return { state: sim.finish(how === 'submit' ? 'submitted' : 'abandoned') };
+  });
+  return viewAttempt(ctx, actor, attemptId);
+}
+
+/** Who may see an attempt: its operator, their employer, assessors and admins. */
+function canSee(actor: Actor, attempt: Attempt): boolean {
+  if (actor.role === 'admin' || actor.role === 'assessor') return true;
+  if (actor.role === 'operator') return attempt.userId === actor.id;
+  if (actor.role === 'employer') return attempt.organizationId !== null && attempt.organizationId === actor.organizationId;
+  return false;
+}
+
+export async function viewAttempt(ctx: AppContext, actor: Actor, attemptId: string): Promise<AttemptView> {
+  const attempt = await Attempt.findByPk(attemptId, { include: [{ model: User, as: 'user' }] });
+  if (!attempt || !canSee(actor, attempt)) throw notFound('That attempt');
+  const sim = await driveOf(ctx, attempt);
+  const userName = (attempt as Attempt & { user?: User }).user?.name ?? '';
+  const view: AttemptView = {
+    attempt: summary(attempt, ctx, userName),
+    publicSeed: attempt.publicSeed,
+    state: sim.state(),
+    odometryTrail: sim.trace.map((s) => s.odometry),
+  };
+  if (attempt.status === 'submitted' || attempt.status === 'abandoned') {
+    const log = await AttemptLogEntry.findAll({ where: { attemptId }, order: [['entryNo', 'ASC']] });
+    view.result = {
+      secretSeed: attempt.secretSeed,
+      trace: sim.trace,
+      calls: sim.calls,
+      truePose: sim.truePose(),
+      log: log.map((e) => ({ entryNo: e.entryNo, kind: e.kind, request: e.request, response: e.response, createdAt: e.createdAt.toISOString() })),
+    };
+  }
+  return view;
+}
+
+export async function listAttempts(ctx: AppContext, actor: Actor, query: z.infer<typeof attemptListQuerySchema>): Promise<Page<AttemptSummary>> {
+  const where: Record<string, unknown> = {};
+  if (actor.role === 'operator') where.userId = actor.id;
+  else if (actor.role === 'employer') where.organizationId = actor.organizationId;
+  if (query.userId && actor.role !== 'operator') where.userId = query.userId;
+  if (query.status) where.status = query.status;
+  if (query.trialId) where.trialId = query.trialId;
+  const { rows, count } = await Attempt.findAndCountAll({
+    where,
+    include: [{ model: User, as: 'user', attributes: ['name'] }],
+    order: [['createdAt', query.sortOrder.toUpperCase()], ['id', 'ASC']],
+    limit: query.pageSize,
+    offset: (query.page - 1) * query.pageSize,
+  });
+  return {
+    items: rows.map((a) => summary(a, ctx, (a as Attempt & { user?: User }).user?.name ?? '')),
+    total: count,
+    page: query.page,
+    pageSize: query.pageSize,
+  };
+}
