@@ -208,7 +208,6 @@ export class DriveSim {
       t: this.time,
       odometry: { ...this.odometry },
       truth: { ...this.truth },
-      believedMultiplier: this.world.driftMultiplierAt(this.odometry.x, this.odometry.y),
       source: 'pass',
       reanchor: { ...noise },
     });
@@ -273,7 +272,6 @@ export class DriveSim {
       t: this.time,
       odometry: { ...this.odometry },
       truth: { ...this.truth },
-      believedMultiplier: this.world.driftMultiplierAt(this.odometry.x, this.odometry.y),
       source,
       ...(hit ? { contact: hit } : {}),
     });

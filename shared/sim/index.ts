@@ -8,3 +8,4 @@ export { DriveSim, DriveError, PASS_SPEED, CREEP_SLIP_FACTOR, type DriveSetup, t
 export { World, MAP_EDGE } from './world';
 export { PathFollower, type FollowCommand, type FollowOptions } from './follow';
 export { footprintAt, polygonsTouch, segmentsIntersect, pathLength, boundingBox } from './geometry';
+export { Belief, CLOUD_SIZE, type BeliefSnapshot } from './belief';

@@ -52,8 +52,6 @@ export interface TraceStep {
   t: number;
   odometry: Pose;
   truth: Pose;
-  /** Floor drift multiplier under the odometry pose (what the robot's software can know). */
-  believedMultiplier: number;
   /** Why the step happened: an operator command, or a pass after a call. */
   source: 'command' | 'pass';
   /** Set when the belief restarts here (re-anchoring or assisted recovery): the position noise, m and rad. */
