@@ -236,6 +236,7 @@ export async function viewAttempt(ctx: AppContext, actor: Actor, attemptId: stri
     publicSeed: attempt.publicSeed,
     state: sim.state(),
     odometryTrail: sim.trace.map((s) => s.odometry),
+    reanchors: sim.trace.flatMap((s, index) => (s.reanchor ? [{ index, noise: s.reanchor }] : [])),
   };
   if (attempt.status === 'submitted' || attempt.status === 'abandoned') {
     const log = await AttemptLogEntry.findAll({ where: { attemptId }, order: [['entryNo', 'ASC']] });

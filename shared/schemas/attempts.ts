@@ -81,6 +81,8 @@ export interface AttemptView {
   state: DriveState;
   /** The odometry pose after every simulated step, passes included. */
   odometryTrail: Pose[];
+  /** Where in the trail the belief restarted (re-anchoring, assisted recovery) and with what noise. */
+  reanchors: { index: number; noise: { position: number; heading: number } }[];
   result?: {
     secretSeed: string;
     trace: TraceStep[];

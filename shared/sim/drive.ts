@@ -14,22 +14,17 @@ import {
   normalizeAngle,
   sampleOdometry,
   scaleOdometryAlphas,
-  wheelTicksFromCommand,
   type Pose,
   type Rng,
   type SystematicErrors,
   type WheelTicks,
 } from '../motion';
 import type { Call, CallPoint, Robot, Surface, Trial } from '../schemas/content';
-import { PathFollower } from './follow';
-import { pathLength } from './geometry';
+import { passFollower, passSlip, passSpeed, passStepLimit } from './pass';
 import type { BatchResult, CallRecord, Command, DriveEvent, DriveState, DriveStatus, EstimatePin, TraceStep } from './types';
+import { wheelStep } from './wheels';
 import { World } from './world';
 
-/** Speed of a pass after `proceed` or `reanchor`, m/s (capped by the robot's own limit). */
-export const PASS_SPEED = 0.6;
-/** A creep pass scales the alphas by this factor: slower wheels slip less. */
-export const CREEP_SLIP_FACTOR = 0.4;
 /** Below this speed the robot counts as stopped (for docking), m/s. */
 const STOPPED = 0.05;
 
@@ -52,8 +47,6 @@ export class DriveError extends Error {
     super(message);
   }
 }
-
-const clamp = (x: number, lo: number, hi: number) => Math.min(hi, Math.max(lo, x));
 
 export class DriveSim {
   readonly world: World;
@@ -159,13 +152,10 @@ export class DriveSim {
     const events: DriveEvent[] = [];
     const odometry: Pose[] = [];
     const { rubric } = this.setup.trial;
-    let speed = Math.min(PASS_SPEED, this.setup.robot.limits.maxSpeed);
-    let slip = 1;
+    const speed = passSpeed(call, this.setup.robot);
+    const slip = passSlip(call);
     let assisted = false;
-    if (call === 'creep') {
-      speed = this.setup.robot.creepSpeed;
-      slip = CREEP_SLIP_FACTOR;
-    } else if (call === 'reanchor') {
+    if (call === 'reanchor') {
       const marker = this.nearestMarker(inView);
       this.reanchor(marker.id, marker.noise, rubric.reanchorSeconds, events);
     } else if (call === 'halt') {
@@ -217,8 +207,8 @@ export class DriveSim {
 
   private drivePass(callPoint: CallPoint, speed: number, slip: number, assisted: boolean, odometry: Pose[], events: DriveEvent[]) {
     const { robot } = this.setup;
-    const follower = new PathFollower(callPoint.passPath, { speed, maxTurnRate: robot.limits.maxTurnRate });
-    const maxSteps = Math.ceil(((pathLength(callPoint.passPath) + 3) / speed / robot.controlPeriod) * 3);
+    const follower = passFollower(callPoint.passPath, speed, robot);
+    const maxSteps = passStepLimit(callPoint.passPath, speed, robot);
     for (let i = 0; i < maxSteps && this.status === 'awaiting_call'; i++) {
       const command = follower.command(this.odometry);
       if (command.arrived) break;
@@ -232,13 +222,8 @@ export class DriveSim {
   /** One control period. */
   private advance(command: Command, source: TraceStep['source'], slip: number, assisted: boolean, events: DriveEvent[]) {
     const { robot } = this.setup;
-    const dt = robot.controlPeriod;
-    const lim = robot.limits;
-    const v = clamp(clamp(command.v, -lim.maxReverseSpeed, lim.maxSpeed), this.v - lim.maxAcceleration * dt, this.v + lim.maxAcceleration * dt);
-    const w = clamp(clamp(command.w, -lim.maxTurnRate, lim.maxTurnRate), this.w - lim.maxTurnAcceleration * dt, this.w + lim.maxTurnAcceleration * dt);
-    const step = wheelTicksFromCommand(v, w, dt, robot, this.remainder);
-    const moved = step.ticks.left !== 0 || step.ticks.right !== 0;
-    const odometry = moved ? integrateWheelTicks(this.odometry, step.ticks, robot) : this.odometry;
+    const step = wheelStep({ odometry: this.odometry, v: this.v, w: this.w, remainder: this.remainder }, command, robot);
+    const { moved, odometry, v, w } = step;
     let truth = this.truth;
     if (moved && assisted) {
       truth = integrateWheelTicks(this.truth, step.ticks, robot);
@@ -247,7 +232,7 @@ export class DriveSim {
       const multiplier = this.world.driftMultiplierAt(this.truth.x, this.truth.y) * slip;
       truth = sampleOdometry(this.truth, this.truth, wheels, scaleOdometryAlphas(robot.assumedProfile.alphas, multiplier), this.rng);
     }
-    this.time += dt;
+    this.time += robot.controlPeriod;
     const hit = moved ? this.world.contactAt(truth) : null;
     if (hit) {
       // The bumper stops the robot where it was.

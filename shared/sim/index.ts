@@ -4,8 +4,10 @@
  * @module
  */
 export * from './types';
-export { DriveSim, DriveError, PASS_SPEED, CREEP_SLIP_FACTOR, type DriveSetup, type DriveErrorCode } from './drive';
+export { DriveSim, DriveError, type DriveSetup, type DriveErrorCode } from './drive';
+export { PASS_SPEED, CREEP_SLIP_FACTOR, passSpeed, passSlip, nominalPass, passStepLimit } from './pass';
 export { World, MAP_EDGE } from './world';
 export { PathFollower, type FollowCommand, type FollowOptions } from './follow';
 export { footprintAt, polygonsTouch, segmentsIntersect, pathLength, boundingBox } from './geometry';
 export { Belief, CLOUD_SIZE, type BeliefSnapshot } from './belief';
+export { wheelStep, type WheelState, type WheelStep } from './wheels';
