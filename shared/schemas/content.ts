@@ -121,6 +121,8 @@ export const rubricSchema = z.strictObject({
   /** Seconds added by a halt (assisted recovery) and by a re-anchor detour. */
   haltSeconds: z.number().min(0).max(3600),
   reanchorSeconds: z.number().min(0).max(3600),
+  /** A total this close to the pass mark (points), or a call risk this close to a band edge (share), goes to review. */
+  reviewMargins: z.strictObject({ total: z.number().min(0).max(50), risk: z.number().min(0).max(0.5) }),
 });
 
 export const siteSchema = z.strictObject({
