@@ -12,8 +12,10 @@ import {
   robotSchema,
   siteSchema,
   surfacesFileSchema,
+  resolveTrial,
+  siteIssues,
   trialFileSchema,
-  trialGeometryIssues,
+  trialIssues,
   type Level,
   type Robot,
   type Site,
@@ -63,6 +65,9 @@ export function loadContent(dir = DEFAULT_CONTENT_DIR): Content {
     return parsed.data;
   }
 
+  /** Ids (file names) of files that failed their own checks: references to them say nothing more. */
+  const broken = new Set<string>();
+
   function readFolder<S extends z.ZodType<{ id: string }>>(folder: string, schema: S): Map<string, { file: string; value: z.infer<S> }> {
     const out = new Map<string, { file: string; value: z.infer<S> }>();
     const full = path.join(dir, folder);
@@ -73,7 +78,10 @@ export function loadContent(dir = DEFAULT_CONTENT_DIR): Content {
     for (const name of readdirSync(full).filter((n) => n.endsWith('.json')).sort()) {
       const file = path.join(full, name);
       const value = read(file, schema);
-      if (!value) continue;
+      if (!value) {
+        broken.add(`${folder}/${name.replace(/\.json$/, '')}`);
+        continue;
+      }
       if (`${value.id}.json` !== name) problems.push(`${relative(file)}: id: "${value.id}" must match the file name`);
       out.set(value.id, { file, value });
     }
@@ -89,7 +97,13 @@ export function loadContent(dir = DEFAULT_CONTENT_DIR): Content {
   if (!existsSync(surfacesFile)) problems.push(`${relative(surfacesFile)}: file missing`);
   const surfaces = new Map(surfaceList.map((s) => [s.id, s]));
 
+  const report = (file: string, issues: { path: PropertyKey[]; message: string }[]) => {
+    for (const issue of issues) problems.push(`${relative(file)}: ${jsonPath(issue.path)}: ${issue.message}`);
+  };
+  const missing = (folder: string, id: string) => !broken.has(`${folder}/${id}`);
+
   for (const { file, value: site } of sites.values()) {
+    report(file, siteIssues(site));
     site.zones.forEach((zone, i) => {
       if (!surfaces.has(zone.surfaceId)) problems.push(`${relative(file)}: zones[${i}].surfaceId: no surface "${zone.surfaceId}"`);
     });
@@ -100,21 +114,14 @@ export function loadContent(dir = DEFAULT_CONTENT_DIR): Content {
   for (const { file, value: t } of trialFiles.values()) {
     const site = sites.get(t.siteId)?.value;
     const robot = robots.get(t.robotId)?.value;
-    if (!site) problems.push(`${relative(file)}: siteId: no site "${t.siteId}"`);
-    if (!robot) problems.push(`${relative(file)}: robotId: no robot "${t.robotId}"`);
+    if (!site && missing('sites', t.siteId)) problems.push(`${relative(file)}: siteId: no site "${t.siteId}"`);
+    if (!robot && missing('robots', t.robotId)) problems.push(`${relative(file)}: robotId: no robot "${t.robotId}"`);
     t.extraZones.forEach((zone, i) => {
       if (!surfaces.has(zone.surfaceId)) problems.push(`${relative(file)}: extraZones[${i}].surfaceId: no surface "${zone.surfaceId}"`);
     });
     if (!site || !robot) continue;
-    const { extraObstacles, extraZones, ...rest } = t;
-    const trial: Trial = {
-      ...rest,
-      siteName: site.name,
-      map: { width: site.width, height: site.height, obstacles: [...site.obstacles, ...extraObstacles] },
-      zones: [...site.zones, ...extraZones],
-      markers: site.markers,
-    };
-    for (const issue of trialGeometryIssues(trial)) problems.push(`${relative(file)}: ${jsonPath(issue.path)}: ${issue.message}`);
+    report(file, trialIssues(t, site));
+    const trial: Trial = resolveTrial(t, site);
     trials.set(trial.id, trial);
     const usedSurfaces = trial.zones.map((z) => surfaces.get(z.surfaceId));
     trialHashes.set(trial.id, createHash('sha256').update(JSON.stringify([trial, robot, usedSurfaces])).digest('hex').slice(0, 16));
@@ -123,7 +130,7 @@ export function loadContent(dir = DEFAULT_CONTENT_DIR): Content {
   const levels: Level[] = [];
   for (const { file, value: level } of levelFiles.values()) {
     level.requiredTrials.forEach((id, i) => {
-      if (!trialFiles.has(id)) problems.push(`${relative(file)}: requiredTrials[${i}]: no trial "${id}"`);
+      if (!trialFiles.has(id) && missing('trials', id)) problems.push(`${relative(file)}: requiredTrials[${i}]: no trial "${id}"`);
     });
     levels.push(level);
   }

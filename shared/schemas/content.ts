@@ -177,35 +177,58 @@ export interface ContentIssue {
   message: string;
 }
 
-/** Checks a resolved trial for what a schema alone cannot see: things outside the map, repeated ids. */
-export function trialGeometryIssues(trial: Trial): ContentIssue[] {
+const inMapOf = (map: { width: number; height: number }) => (p: { x: number; y: number }) => p.x >= 0 && p.y >= 0 && p.x <= map.width && p.y <= map.height;
+
+function duplicateIds(items: { id: string }[], path: string, what: string, taken: Set<string> = new Set()): ContentIssue[] {
   const issues: ContentIssue[] = [];
-  const inMap = (p: { x: number; y: number }) => p.x >= 0 && p.y >= 0 && p.x <= trial.map.width && p.y <= trial.map.height;
+  items.forEach((item, i) => {
+    if (taken.has(item.id)) issues.push({ path: [path, i, 'id'], message: `Two ${what} share the id "${item.id}".` });
+    taken.add(item.id);
+  });
+  return issues;
+}
+
+/** What a schema alone cannot see in a site file: repeated ids, markers off the map. */
+export function siteIssues(site: Site): ContentIssue[] {
+  const inMap = inMapOf(site);
+  return [
+    ...duplicateIds(site.obstacles, 'obstacles', 'obstacles'),
+    ...duplicateIds(site.zones, 'zones', 'floor zones'),
+    ...duplicateIds(site.markers, 'markers', 'markers'),
+    ...site.markers.flatMap((m, i) => (inMap(m) ? [] : [{ path: ['markers', i], message: 'The marker is outside the map.' }])),
+  ];
+}
+
+/** What a schema alone cannot see in a trial file on its site: poses and paths off the map, repeated ids. */
+export function trialIssues(trial: TrialFile, site: Site): ContentIssue[] {
+  const inMap = inMapOf(site);
+  const issues: ContentIssue[] = [];
   if (!inMap(trial.start)) issues.push({ path: ['start'], message: 'The start pose is outside the map.' });
   if (!inMap(trial.dock.pose)) issues.push({ path: ['dock', 'pose'], message: 'The dock is outside the map.' });
   trial.route.forEach((p, i) => {
     if (!inMap(p)) issues.push({ path: ['route', i], message: 'The route leaves the map.' });
-  });
-  trial.markers.forEach((m, i) => {
-    if (!inMap(m)) issues.push({ path: ['markers', i], message: 'The marker is outside the map.' });
   });
   trial.callPoints.forEach((c, i) => {
     c.passPath.forEach((p, j) => {
       if (!inMap(p)) issues.push({ path: ['callPoints', i, 'passPath', j], message: 'The pass path leaves the map.' });
     });
   });
-  const unique = (what: string, items: { id: string }[], path: string) => {
-    const seen = new Set<string>();
-    items.forEach((item, i) => {
-      if (seen.has(item.id)) issues.push({ path: [path, i, 'id'], message: `Two ${what} share the id "${item.id}".` });
-      seen.add(item.id);
-    });
-  };
-  unique('obstacles', trial.map.obstacles, 'obstacles');
-  unique('floor zones', trial.zones, 'zones');
-  unique('markers', trial.markers, 'markers');
-  unique('call points', trial.callPoints, 'callPoints');
+  issues.push(...duplicateIds(trial.extraObstacles, 'extraObstacles', 'obstacles', new Set(site.obstacles.map((o) => o.id))));
+  issues.push(...duplicateIds(trial.extraZones, 'extraZones', 'floor zones', new Set(site.zones.map((z) => z.id))));
+  issues.push(...duplicateIds(trial.callPoints, 'callPoints', 'call points'));
   return issues;
+}
+
+/** A trial file placed on its site: the map, floor zones and markers it is driven with. */
+export function resolveTrial(file: TrialFile, site: Site): Trial {
+  const { extraObstacles, extraZones, ...rest } = file;
+  return {
+    ...rest,
+    siteName: site.name,
+    map: { width: site.width, height: site.height, obstacles: [...site.obstacles, ...extraObstacles] },
+    zones: [...site.zones, ...extraZones],
+    markers: site.markers,
+  };
 }
 
 export const levelSchema = z.strictObject({

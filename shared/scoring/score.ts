@@ -24,6 +24,8 @@ export interface ScoreInput {
   status: DriveStatus;
   /** Drive time at the end, penalties included. */
   time: number;
+  /** Contact episodes, as the drive counted them. */
+  contacts: number;
   truePose: Pose;
 }
 
@@ -115,7 +117,7 @@ export function scoreAttempt(input: ScoreInput): AttemptScore {
   }
 
   const contactObstacles = [...new Set(trace.filter((s) => s.contact).map((s) => s.contact!))];
-  const contacts = countContactEpisodes(trace);
+  const contacts = input.contacts;
   const dock = trial.dock;
   const dockPositionError = Math.hypot(input.truePose.x - dock.pose.x, input.truePose.y - dock.pose.y);
   const dockHeadingError = Math.abs(normalizeAngle(input.truePose.theta - dock.pose.theta));
@@ -134,12 +136,6 @@ export function scoreAttempt(input: ScoreInput): AttemptScore {
     timedOut,
   };
   return combine(callScores, outcome, rubric, uncertainty, input.status === 'submitted');
-}
-
-function countContactEpisodes(trace: readonly TraceStep[]): number {
-  let episodes = 0;
-  for (let i = 0; i < trace.length; i++) if (trace[i].contact && !trace[i - 1]?.contact) episodes += 1;
-  return episodes;
 }
 
 /** Totals the parts by the rubric's weights, decides pass or fail and the review flags. */

@@ -94,6 +94,7 @@ export class DriveSim {
       markersInView: [...this.markersInView],
       docked: this.docked,
       contacts: this.contacts,
+      blocked: this.blocked,
       distanceSinceAnchor: this.distanceSinceAnchor,
     };
   }
@@ -219,10 +220,15 @@ export class DriveSim {
     }
   }
 
-  /** One control period. */
+  /**
+   * One control period. After a contact the bumper stays engaged: forward commands do nothing
+   * until the operator stops or reverses, so holding the stick forward is one contact, not many.
+   */
   private advance(command: Command, source: TraceStep['source'], slip: number, assisted: boolean, events: DriveEvent[]) {
     const { robot } = this.setup;
-    const step = wheelStep({ odometry: this.odometry, v: this.v, w: this.w, remainder: this.remainder }, command, robot);
+    const seq = this.seq + (source === 'command' ? 1 : 0);
+    const wanted = this.blocked && command.v > 0 ? { v: 0, w: command.w } : command;
+    const step = wheelStep({ odometry: this.odometry, v: this.v, w: this.w, remainder: this.remainder }, wanted, robot);
     const { moved, odometry, v, w } = step;
     let truth = this.truth;
     if (moved && assisted) {
@@ -238,14 +244,14 @@ export class DriveSim {
       // The bumper stops the robot where it was.
       if (!this.blocked) {
         this.contacts += 1;
-        events.push({ type: 'contact', seq: this.seq + (source === 'command' ? 1 : 0), obstacleId: hit });
+        events.push({ type: 'contact', seq, obstacleId: hit });
       }
       this.blocked = true;
       this.v = 0;
       this.w = 0;
       this.remainder = { left: 0, right: 0 };
     } else {
-      this.blocked = false;
+      if (source === 'command' && command.v <= 0) this.blocked = false;
       this.distanceSinceAnchor += Math.hypot(odometry.x - this.odometry.x, odometry.y - this.odometry.y);
       this.odometry = odometry;
       this.truth = truth;
@@ -260,7 +266,6 @@ export class DriveSim {
       source,
       ...(hit ? { contact: hit } : {}),
     });
-    const seq = this.seq + (source === 'command' ? 1 : 0);
     const inView = this.world.markersInView(this.truth);
     if (inView.join() !== this.markersInView.join()) {
       this.markersInView = inView;
@@ -273,13 +278,13 @@ export class DriveSim {
       Math.abs(this.v) < STOPPED;
     if (atDock && !this.docked) events.push({ type: 'dock_reached', seq });
     this.docked = atDock;
-    this.checkTime(events);
+    this.checkTime(events, seq);
   }
 
-  private checkTime(events: DriveEvent[]) {
+  private checkTime(events: DriveEvent[], seq = this.seq) {
     if (this.time >= this.setup.trial.timeLimit - 1e-9 && this.status !== 'time_up') {
       this.status = 'time_up';
-      events.push({ type: 'time_up', seq: this.seq });
+      events.push({ type: 'time_up', seq });
     }
   }
 }

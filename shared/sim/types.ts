@@ -29,6 +29,8 @@ export interface DriveState {
   docked: boolean;
   /** Contact episodes so far. */
   contacts: number;
+  /** The bumper is engaged after a contact: forward commands do nothing until a stop or a reverse. */
+  blocked: boolean;
   /** Odometry distance since the start or the last re-anchoring, metres. */
   distanceSinceAnchor: number;
 }

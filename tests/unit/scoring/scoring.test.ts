@@ -1,9 +1,9 @@
 import { describe, expect, it } from 'vitest';
 import jStat from 'jstat';
 import { createRng, ParticleCloud } from '../../../shared/motion';
-import type { Call, Robot, Trial } from '../../../shared/schemas';
+import type { Call, CallPoint, Robot, Trial } from '../../../shared/schemas';
 import { applyAmendments, GRADES, gradeCall, passRisk, scoreAttempt, scoreEstimate, type AttemptScore } from '../../../shared/scoring';
-import { DriveSim, nominalPass, World, type CallPoint, type DriveState } from '../../../shared/sim';
+import { DriveSim, nominalPass, World, type DriveState } from '../../../shared/sim';
 import { driveSetup } from '../../support/content';
 import { driveTrial } from '../../support/scripted-operator';
 
@@ -101,7 +101,7 @@ describe('scoring whole drives', () => {
       batch: 2,
     });
     const state = sim.finish('submitted');
-    return scoreAttempt({ ...setup, publicSeed: `public-${seed}`, trace: sim.trace, calls: sim.calls, status: 'submitted', time: state.time, truePose: sim.truePose() });
+    return scoreAttempt({ ...setup, publicSeed: `public-${seed}`, trace: sim.trace, calls: sim.calls, status: 'submitted', time: state.time, contacts: state.contacts, truePose: sim.truePose() });
   }
 
   // On the wet wash bay (drift multiplier 12) the south door is 1.4 m for a 0.7 m robot.
@@ -130,7 +130,7 @@ describe('scoring whole drives', () => {
       chooseCall: () => 'reanchor',
       batch: 3,
     });
-    const input = { ...setup, publicSeed: 'p', trace: sim.trace, calls: sim.calls, status: 'submitted' as const, time: sim.state().time, truePose: sim.truePose() };
+    const input = { ...setup, publicSeed: 'p', trace: sim.trace, calls: sim.calls, status: 'submitted' as const, time: sim.state().time, contacts: sim.state().contacts, truePose: sim.truePose() };
     const first = scoreAttempt(input);
     expect(scoreAttempt(structuredClone(input))).toEqual(first);
     expect(first.version).toBe('scoring-1');

@@ -189,11 +189,7 @@ describe('time limit', () => {
     expect(driveErrorCode(() => sim.applyBatch([{ v: 0, w: 0 }]))).toBe('not_driving');
   });
 
-  // KNOWN BUG (reported to the lead): shared/sim/drive.ts checkTime() stamps the time_up event
-  // with this.seq, which applyBatch only increments AFTER advance() returns, so the event says
-  // seq 2399 for the step that makes seq 2400; contact, markers and dock_reached events of a
-  // command step use this.seq + 1 (the step's own seq, see contacts.test.ts). Flip to `it` once fixed.
-  it.fails('the time_up event carries the seq of the step that reached the limit, like the other events', () => {
+  it('the time_up event carries the seq of the step that reached the limit, like the other events', () => {
     const sim = new DriveSim(driveSetup('long-aisle-run', 'time-3'));
     const steps = Math.round(sim.setup.trial.timeLimit / sim.setup.robot.controlPeriod);
     const r = sim.applyBatch(repeat(steps + 1, { v: 0, w: 0 }));
