@@ -34,6 +34,9 @@ export function navigationFor(role: Role): NavLink[] {
       { label: 'Mail sink', to: '/admin/mail', icon: 'pi pi-envelope' },
     ];
   }
+  if (role === 'operator') {
+    return [home, { label: 'Trials', to: '/operator/trials', icon: 'pi pi-map' }];
+  }
   return [home];
 }
 

@@ -4,12 +4,19 @@
  */
 import type {
   ApiErrorBody,
+  AttemptStart,
+  AttemptSummary,
+  AttemptView,
+  BatchResult,
+  CallAnswer,
   CapturedMail,
   CapturedMailSummary,
   Organization,
   Page,
   PasswordResetConfirm,
   PasswordResetRequest,
+  PublicLevel,
+  PublicTrial,
   PublicUser,
   Role,
   SignIn,
@@ -17,6 +24,7 @@ import type {
   UserUpdate,
   USER_SORT_FIELDS,
 } from '@shared/schemas';
+import type { Command } from '@shared/sim';
 
 /** Codes the client itself gives to failures that never reached a JSON answer. */
 export const CLIENT_ERROR_CODES = {
@@ -227,6 +235,53 @@ export const mailApi = {
   get: (id: number) => request<{ message: CapturedMail }>('GET', `/api/mail-messages/${encodeURIComponent(id)}`),
 };
 
+/**
+ * A trial as GET /api/trials lists it (the same shape as TrialSummary in
+ * server/services/trials.ts, which the client cannot import).
+ */
+export interface TrialSummary {
+  id: string;
+  title: string;
+  summary: string;
+  robotName: string;
+  /** Seconds. */
+  timeLimit: number;
+  levelIds: string[];
+}
+
+export const trialsApi = {
+  levels: (signal?: AbortSignal) => request<{ items: PublicLevel[] }>('GET', '/api/levels', { signal }),
+  list: (signal?: AbortSignal) => request<{ items: TrialSummary[] }>('GET', '/api/trials', { signal }),
+  get: (id: string, signal?: AbortSignal) =>
+    request<{ trial: PublicTrial }>('GET', `/api/trials/${encodeURIComponent(id)}`, { signal }),
+};
+
+export interface AttemptListParams {
+  page?: number;
+  pageSize?: number;
+  sortOrder?: SortOrder;
+  status?: AttemptSummary['status'];
+  trialId?: string;
+}
+
+const attemptPath = (id: string, tail = '') => `/api/attempts/${encodeURIComponent(id)}${tail}`;
+
+export const attemptsApi = {
+  start: (trialId: string, mode: AttemptSummary['mode']) =>
+    request<AttemptStart>('POST', '/api/attempts', { body: { trialId, mode } }),
+  list: (params: AttemptListParams = {}, signal?: AbortSignal) =>
+    request<Page<AttemptSummary>>('GET', '/api/attempts', { query: { ...params }, signal }),
+  get: (id: string, signal?: AbortSignal) => request<AttemptView>('GET', attemptPath(id), { signal }),
+  /** One numbered batch of commands; resending the same batch gets the stored answer. */
+  steps: (id: string, fromSeq: number, commands: Command[], signal?: AbortSignal) =>
+    request<BatchResult>('POST', attemptPath(id, '/steps'), { body: { fromSeq, commands }, signal }),
+  /** The call at the call point the drive waits at; resending the same call gets the stored answer. */
+  call: (id: string, answer: CallAnswer) => request<BatchResult>('POST', attemptPath(id, '/calls'), { body: answer }),
+  submit: (id: string) => request<AttemptView>('POST', attemptPath(id, '/submit')),
+  abandon: (id: string) => request<AttemptView>('POST', attemptPath(id, '/abandon')),
+  examSeats: (signal?: AbortSignal) => request<{ available: number }>('GET', '/api/exam-seats', { signal }),
+};
+
 /** All endpoints, grouped by resource. */
 export const api = {
   auth: authApi,
@@ -234,4 +289,6 @@ export const api = {
   users: usersApi,
   organizations: organizationsApi,
   mail: mailApi,
+  trials: trialsApi,
+  attempts: attemptsApi,
 };

@@ -12,6 +12,8 @@ declare module 'vue-router' {
     roles?: Role[];
     /** Shown in the browser tab, before " · Driftproof". */
     title?: string;
+    /** The page uses the full width of the window (the drive console). */
+    wide?: boolean;
   }
 }
 

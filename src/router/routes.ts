@@ -59,6 +59,25 @@ export const routes: RouteRecordRaw[] = [
     meta: { roles: ['operator'], title: 'Operator home' },
   },
   {
+    path: '/operator/trials',
+    name: 'operator-trials',
+    component: () => import('@/views/operator/TrialsView.vue'),
+    meta: { roles: ['operator'], title: 'Trials' },
+  },
+  {
+    path: '/operator/trials/:trialId',
+    name: 'operator-briefing',
+    component: () => import('@/views/operator/TrialBriefingView.vue'),
+    meta: { roles: ['operator'], title: 'Briefing' },
+  },
+  {
+    path: '/operator/drives/:attemptId',
+    name: 'operator-drive',
+    // The console carries konva: it loads with this route only, never with the main bundle.
+    component: () => import('@/views/operator/DriveConsoleView.vue'),
+    meta: { roles: ['operator'], title: 'Drive console', wide: true },
+  },
+  {
     path: '/assessor',
     name: 'assessor-home',
     component: () => import('@/views/home/AssessorHomeView.vue'),

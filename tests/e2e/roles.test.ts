@@ -19,8 +19,8 @@ const ACCOUNTS = [
   { account: 'employer', home: '/employer', heading: 'Employer home', role: 'Employer', nav: ['Home'], safety: true },
   { account: 'hr', home: '/hr', heading: 'HR home', role: 'HR', nav: ['Home'], safety: true },
   { account: 'assessor', home: '/assessor', heading: 'Assessor home', role: 'Assessor', nav: ['Home'], safety: false },
-  { account: 'operator1', home: '/operator', heading: 'Operator home', role: 'Operator', nav: ['Home'], safety: true },
-  { account: 'operator2', home: '/operator', heading: 'Operator home', role: 'Operator', nav: ['Home'], safety: true },
+  { account: 'operator1', home: '/operator', heading: 'Operator home', role: 'Operator', nav: ['Home', 'Trials'], safety: true },
+  { account: 'operator2', home: '/operator', heading: 'Operator home', role: 'Operator', nav: ['Home', 'Trials'], safety: true },
 ] as const;
 
 let browser: Browser;

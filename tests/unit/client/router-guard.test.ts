@@ -94,7 +94,7 @@ describe('decideNavigation (pure)', () => {
       }
     }
     expect(navigationFor('admin').map((l) => l.label)).toEqual(['Home', 'Users', 'Mail sink']);
-    expect(navigationFor('operator').map((l) => l.label)).toEqual(['Home']);
+    expect(navigationFor('operator').map((l) => l.label)).toEqual(['Home', 'Trials']);
   });
 
   it('words the notice for several roles', () => {
