@@ -15,6 +15,7 @@ import { attemptRoutes } from './routes/attempts';
 import { authRoutes, SESSION_COOKIE } from './routes/auth';
 import { healthRoutes } from './routes/health';
 import { mailMessageRoutes } from './routes/mail-messages';
+import { reviewRoutes } from './routes/reviews';
 import { trialRoutes } from './routes/trials';
 import { userRoutes } from './routes/users';
 
@@ -63,6 +64,7 @@ export function createApp(ctx: AppContext) {
   api.use(mailMessageRoutes());
   api.use(trialRoutes(ctx));
   api.use(attemptRoutes(ctx));
+  api.use(reviewRoutes(ctx));
   api.use((req, _res, next) => next(new HttpError(404, 'not_found', `No API route for ${req.method} ${req.path}.`)));
   app.use('/api', api);
 

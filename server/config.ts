@@ -26,6 +26,7 @@ const envSchema = z.object({
   BCRYPT_COST: z.coerce.number().int().min(4).max(15).default(11),
   TRUST_PROXY: z.string().default('loopback'),
   SIGN_IN_LIMIT: z.coerce.number().int().min(1).default(5),
+  JOB_WORKERS: z.enum(['0', '1']).default('1'),
   RESET_LIMIT: z.coerce.number().int().min(1).default(5),
 });
 
@@ -48,6 +49,8 @@ export interface Config {
   trustProxy: string;
   signInLimit: number;
   resetLimit: number;
+  /** Whether this web process also runs the job workers. */
+  jobWorkers: boolean;
 }
 
 /** A session secret kept under .data so that sessions survive restarts on a developer's machine. */
@@ -85,5 +88,6 @@ export function loadConfig(source: NodeJS.ProcessEnv = process.env): Config {
     trustProxy: e.TRUST_PROXY,
     signInLimit: e.SIGN_IN_LIMIT,
     resetLimit: e.RESET_LIMIT,
+    jobWorkers: e.JOB_WORKERS === '1',
   };
 }

@@ -6,6 +6,7 @@ import { randomBytes } from 'node:crypto';
 import type { Config } from './config';
 import { loadContent, type Content } from './content/load';
 import { createDatabase } from './db';
+import { createJobQueue, type JobQueue } from './jobs/queue';
 import { createMailer, type Mailer } from './services/mailer';
 
 /** What the web app needs from the outside world; built once per process by server/index.ts or a test. */
@@ -20,6 +21,8 @@ export interface AppContext {
   newSeed: () => string;
   /** Drives rebuilt from their logs, by attempt id: only a cache, checked against the log length. */
   drives: DriveCache;
+  /** Background work (scoring, e-mail) through the PostgreSQL job queue. */
+  jobs: JobQueue;
 }
 
 export interface DriveCache {
@@ -74,10 +77,12 @@ export function createContext(config: Config, urls: { databaseUrl: string; smtpU
     content: options.content ?? loadContent(),
     newSeed: options.newSeed ?? (() => randomBytes(16).toString('hex')),
     drives: createDriveCache(),
+    jobs: createJobQueue(urls.databaseUrl, { pollingSeconds: config.env === 'test' ? 0.5 : 2 }),
   };
 }
 
 export async function closeContext(ctx: AppContext) {
+  await ctx.jobs.stop();
   ctx.mailer.close();
   const store = ctx.sessionStore as session.Store & { close?: () => Promise<void> };
   await store.close?.();

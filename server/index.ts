@@ -10,6 +10,7 @@ import { createApp } from './app';
 import { loadConfig, type Config } from './config';
 import { closeContext, createContext } from './context';
 import { migrate, seedDemo } from './db/migrate';
+import { startWorkers } from './jobs/workers';
 
 export interface RunningServer {
   url: string;
@@ -21,6 +22,8 @@ export async function startServer(config: Config, urls: { databaseUrl: string; s
   const ctx = createContext(config, urls);
   await migrate(ctx.sequelize);
   if (options.seed) await seedDemo(ctx.sequelize, { password: config.demoPassword, bcryptCost: config.bcryptCost });
+  // Job workers run in the web process unless JOB_WORKERS=0 (then run server/worker.ts separately).
+  if (config.jobWorkers) await startWorkers(ctx);
   const app = createApp(ctx);
   const server: Server = await new Promise((resolve, reject) => {
     const s = app.listen(config.port, config.host, () => resolve(s));

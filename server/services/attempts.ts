@@ -23,6 +23,7 @@ import type { AppContext } from '../context';
 import { Attempt, AttemptLogEntry, User } from '../db/models';
 import type { AttemptLogKind } from '../db/models/attempt-log-entry';
 import { HttpError, notFound } from '../http/errors';
+import { JOBS } from '../jobs/queue';
 import { takeExamSeat } from './seats';
 import { publicTrial } from './trials';
 
@@ -44,7 +45,7 @@ function asHttp(error: unknown): unknown {
   return new HttpError(DRIVE_ERROR_STATUS[error.code], error.code, error.message, fields);
 }
 
-function summary(attempt: Attempt, ctx: AppContext, userName: string): AttemptSummary {
+export function summary(attempt: Attempt, ctx: AppContext, userName: string): AttemptSummary {
   return {
     id: attempt.id,
     trialId: attempt.trialId,
@@ -109,7 +110,7 @@ function replay(sim: DriveSim, entry: Pick<AttemptLogEntry, 'kind' | 'request'>)
 }
 
 /** The drive of an attempt, from the cache when it is up to date with the log, else by replay. */
-async function driveOf(ctx: AppContext, attempt: Attempt, transaction?: Transaction): Promise<DriveSim> {
+export async function driveOf(ctx: AppContext, attempt: Attempt, transaction?: Transaction): Promise<DriveSim> {
   const cached = ctx.drives.get(attempt.id);
   if (cached && cached.logLength === attempt.logLength) return cached.sim;
   const sim = newDrive(ctx, attempt);
@@ -206,20 +207,25 @@ export function answerCall(ctx: AppContext, actor: Actor, attemptId: string, ans
   }) as Promise<BatchResult>;
 }
 
-/** Ends the drive: submitted for scoring, or abandoned. Repeating it is harmless. */
+/**
+ * Ends the drive: submitted for scoring (the scoring job is queued in the same transaction), or
+ * abandoned. Repeating it is harmless.
+ */
 export async function finishAttempt(ctx: AppContext, actor: Actor, attemptId: string, how: 'submit' | 'abandon'): Promise<AttemptView> {
-  await changeDrive(ctx, actor, attemptId, how, {}, (sim, attempt) => {
+  await changeDrive(ctx, actor, attemptId, how, {}, async (sim, attempt, transaction) => {
     if (attempt.status === 'submitted' || attempt.status === 'abandoned') {
       if ((how === 'submit') === (attempt.status === 'submitted')) return { stored: null };
       throw new HttpError(409, 'attempt_over', `This attempt was already ${attempt.status}.`);
     }
-    return { state: sim.finish(how === 'submit' ? 'submitted' : 'abandoned') };
+    const state = sim.finish(how === 'submit' ? 'submitted' : 'abandoned');
+    if (how === 'submit') await ctx.jobs.send(JOBS.scoreAttempt, { attemptId }, { transaction, singletonKey: attemptId });
+    return { state };
   });
   return viewAttempt(ctx, actor, attemptId);
 }
 
 /** Who may see an attempt: its operator, their employer, assessors and admins. */
-function canSee(actor: Actor, attempt: Attempt): boolean {
+export function canSee(actor: Actor, attempt: Attempt): boolean {
   if (actor.role === 'admin' || actor.role === 'assessor') return true;
   if (actor.role === 'operator') return attempt.userId === actor.id;
   if (actor.role === 'employer') return attempt.organizationId !== null && attempt.organizationId === actor.organizationId;

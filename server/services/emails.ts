@@ -32,3 +32,20 @@ export function invitationEmail(to: string, name: string, link: string, hours: n
     html: layout(lines, { href: link, label: 'Choose your password' }, footer),
   };
 }
+
+export function resultEmail(to: string, name: string, trialTitle: string, outcome: 'passed' | 'not passed' | 'voided', total: number | null, link: string): OutgoingMail {
+  const lines = [
+    `Hello ${name},`,
+    outcome === 'voided'
+      ? `Your exam drive of "${trialTitle}" was voided after review because of a technical fault. Your exam seat has been returned.`
+      : `The result of your drive of "${trialTitle}" is final: ${outcome}, with ${total?.toFixed(1)} points.`,
+    'The report shows the path you believed against the true path, the drift cloud at each call and how each call was graded.',
+  ];
+  const footer = 'A simulated assessment does not authorise anyone to operate a real robot: site training, your employer\'s written authorisation and local rules always apply.';
+  return {
+    to,
+    subject: `Your Driftproof result: ${trialTitle}`,
+    text: `${lines.join('\n\n')}\n\n${link}\n\n${footer}\n`,
+    html: layout(lines, { href: link, label: 'Open the report' }, footer),
+  };
+}

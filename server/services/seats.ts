@@ -30,3 +30,8 @@ export async function grantExamSeats(userId: number, count: number, grantedBy: n
   await ExamSeatGrant.bulkCreate(Array.from({ length: count }, () => ({ userId, grantedBy, attemptId: null, usedAt: null })));
   return availableExamSeats(userId);
 }
+
+/** Gives the seat of a voided exam attempt back (a technical fault is not the operator's loss). */
+export async function returnExamSeat(attemptId: string, transaction: Transaction): Promise<void> {
+  await ExamSeatGrant.update({ attemptId: null, usedAt: null }, { where: { attemptId }, transaction });
+}

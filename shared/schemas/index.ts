@@ -7,3 +7,4 @@ export * from './errors';
 export * from './organizations';
 export * from './content';
 export * from './attempts';
+export * from './reviews';

@@ -45,6 +45,17 @@ export async function latestMailTo(address: string, after = new Date(0), waitMs 
   throw new Error(`No mail reached ${address}`);
 }
 
+/** A message to an address whose text contains `text`, waiting briefly for delivery (other jobs may mail the same address). */
+export async function mailContaining(address: string, text: string, waitMs = 10_000): Promise<MailMessage> {
+  for (let waited = 0; waited <= waitMs; waited += 100) {
+    const messages = await MailMessage.findAll({ where: { envelopeTo: address }, order: [['id', 'DESC']], limit: 50 });
+    const found = messages.find((m) => (m.textBody ?? '').includes(text));
+    if (found) return found;
+    await new Promise((r) => setTimeout(r, 100));
+  }
+  throw new Error(`No mail to ${address} mentions ${text}`);
+}
+
 /** The one-time token in a password link of a captured message. */
 export function tokenFrom(message: MailMessage): string {
   const match = /reset-password\?token=([A-Za-z0-9_-]{43})/.exec(message.textBody ?? '');

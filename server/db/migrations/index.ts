@@ -1,5 +1,6 @@
 import { foundation } from './0001-foundation';
 import { attempts } from './0002-attempts';
+import { scoresAndReviews } from './0003-scores-and-reviews';
 
 /** Every schema change, in order. Add new ones at the end; never edit one that has shipped. */
-export const migrations = [foundation, attempts];
+export const migrations = [foundation, attempts, scoresAndReviews];

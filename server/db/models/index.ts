@@ -1,13 +1,16 @@
 import type { Sequelize } from 'sequelize';
 import { Attempt } from './attempt';
 import { AttemptLogEntry } from './attempt-log-entry';
+import { AttemptReview } from './attempt-review';
+import { AttemptScore } from './attempt-score';
+import { ReviewAuditEntry } from './review-audit-entry';
 import { ExamSeatGrant } from './exam-seat-grant';
 import { MailMessage } from './mail-message';
 import { Organization } from './organization';
 import { PasswordToken } from './password-token';
 import { User } from './user';
 
-export { Attempt, AttemptLogEntry, ExamSeatGrant, MailMessage, Organization, PasswordToken, User };
+export { Attempt, AttemptLogEntry, AttemptReview, AttemptScore, ExamSeatGrant, ReviewAuditEntry, MailMessage, Organization, PasswordToken, User };
 
 /** Registers every model and association on a Sequelize instance. */
 export function initModels(sequelize: Sequelize) {
@@ -18,10 +21,19 @@ export function initModels(sequelize: Sequelize) {
   Attempt.initModel(sequelize);
   AttemptLogEntry.initModel(sequelize);
   ExamSeatGrant.initModel(sequelize);
+  AttemptScore.initModel(sequelize);
+  AttemptReview.initModel(sequelize);
+  ReviewAuditEntry.initModel(sequelize);
 
   Organization.hasMany(User, { foreignKey: 'organizationId', as: 'users' });
   User.belongsTo(Organization, { foreignKey: 'organizationId', as: 'organization' });
   User.hasMany(PasswordToken, { foreignKey: 'userId', as: 'passwordTokens' });
   PasswordToken.belongsTo(User, { foreignKey: 'userId', as: 'user' });
   Attempt.belongsTo(User, { foreignKey: 'userId', as: 'user' });
+  Attempt.hasOne(AttemptScore, { foreignKey: 'attemptId', as: 'score' });
+  AttemptScore.belongsTo(Attempt, { foreignKey: 'attemptId', as: 'attempt' });
+  AttemptScore.hasOne(AttemptReview, { foreignKey: 'attemptId', sourceKey: 'attemptId', as: 'review' });
+  Attempt.hasOne(AttemptReview, { foreignKey: 'attemptId', as: 'review' });
+  AttemptReview.belongsTo(User, { foreignKey: 'assessorId', as: 'assessor' });
+  ReviewAuditEntry.belongsTo(User, { foreignKey: 'actorId', as: 'actor' });
 }
