@@ -70,6 +70,8 @@ export function useDriveSession(attemptId: string) {
   const finished = shallowRef<AttemptView | null>(null);
   const counters = reactive({ queued: 0, acknowledged: 0, dropped: 0, sends: 0, resends: 0 });
   const current = shallowRef<Command>(ZERO);
+  /** The seq the drive was at when this console loaded it (the counters count from there). */
+  const startSeq = ref(0);
 
   let world: World | null = null;
   let belief: Belief | null = null;
@@ -96,8 +98,8 @@ export function useDriveSession(attemptId: string) {
     if (finishing.value) return 'finishing';
     if (state.status === 'time_up' || state.status === 'submitted' || state.status === 'abandoned') return 'over';
     if (link.value !== 'ok') return 'connection';
-    if (state.status === 'awaiting_call' || shown.value?.status === 'awaiting_call') return 'call';
     if (passing.value) return 'pass';
+    if (state.status === 'awaiting_call' || shown.value?.status === 'awaiting_call') return 'call';
     if (contact.value) return 'contact';
     if (hidden.value) return 'hidden';
     if (!armed.value) return 'not-started';
@@ -194,6 +196,7 @@ export function useDriveSession(attemptId: string) {
     dockReached.value = view.state.docked;
     redraw();
 
+    startSeq.value = view.state.seq;
     batcher = new CommandBatcher(view.state.seq, {
       send: (batch) => attemptsApi.steps(attemptId, batch.fromSeq, batch.commands),
       sendInterval: SEND_INTERVAL,
@@ -384,6 +387,7 @@ export function useDriveSession(attemptId: string) {
     callError,
     finished,
     counters,
+    startSeq,
     current,
     callPoint,
     pauseReason,

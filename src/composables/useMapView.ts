@@ -3,7 +3,10 @@
  * and whether the view follows the robot.
  */
 import { computed, ref, shallowRef } from 'vue';
-import { ZOOM_STEP, fitView, panBy, toScreen, toWorld, worldTransform, zoomAt, type Size, type ViewState } from '@/drive/map-view';
+import { ZOOM_STEP, clampZoom, fitView, panBy, toScreen, toWorld, worldTransform, zoomAt, type Size, type ViewState } from '@/drive/map-view';
+
+/** Pixels per metre of the first view. */
+const START_ZOOM = 36;
 
 export function useMapView(site: () => { width: number; height: number } | null) {
   const size = shallowRef<Size>({ width: 800, height: 500 });
@@ -50,9 +53,9 @@ export function useMapView(site: () => { width: number; height: number } | null)
     if (!fitted.value) {
       const s = site();
       if (s) {
-        // First layout: a view a little closer than the whole site, so the robot is easy to see.
+        // First layout: close enough to see the robot and the cloud, far enough to see the way ahead.
         const whole = fitView(s.width, s.height, next);
-        view.value = { ...whole, zoom: whole.zoom * 1.6 };
+        view.value = { ...whole, zoom: clampZoom(Math.max(whole.zoom * 1.6, START_ZOOM)) };
         fitted.value = true;
       }
     }

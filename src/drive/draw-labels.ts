@@ -26,8 +26,14 @@ export function drawLabels(ctx: CanvasRenderingContext2D, trial: PublicTrial, pr
     ctx.font = font(o.weight ?? 700, px);
     const w = ctx.measureText(text).width;
     if (o.maxWidth !== undefined && w > o.maxWidth) return false;
-    const align = o.align ?? 'center';
-    const left = align === 'center' ? x - w / 2 : align === 'left' ? x : x - w;
+    let align = o.align ?? 'center';
+    let left = align === 'center' ? x - w / 2 : align === 'left' ? x : x - w;
+    // Keep a label that is partly off the canvas readable: slide it inside.
+    if (left + w > 0 && left < size.width && (left < 4 || left + w > size.width - 4)) {
+      left = Math.max(4, Math.min(size.width - 4 - w, left));
+      align = 'left';
+      x = left;
+    }
     const rect = { x: left - 3, y: y - px / 2 - 2, w: w + 6, h: px + 4 };
     if (rect.x + rect.w < 0 || rect.y + rect.h < 0 || rect.x > size.width || rect.y > size.height) return false;
     if (placed.some((r) => overlaps(r, rect))) return false;
@@ -66,7 +72,7 @@ export function drawLabels(ctx: CanvasRenderingContext2D, trial: PublicTrial, pr
     const dx = Math.cos(marker.facing);
     const align: CanvasTextAlign = dx > 0.3 ? 'left' : dx < -0.3 ? 'right' : 'center';
     const offset = align === 'center' ? 0 : dx > 0 ? 14 : -14;
-    label(`Marker ${markerName(marker)}`, p.x + offset, p.y + (align === 'center' ? -16 * Math.sign(Math.sin(marker.facing) || 1) : 0), { size: 11, align });
+    label(`${markerName(marker)} marker`, p.x + offset, p.y + (align === 'center' ? -16 * Math.sign(Math.sin(marker.facing) || 1) : 0), { size: 11, align });
   }
 
   // Floor zones: their label, else the surface's name.
@@ -74,7 +80,7 @@ export function drawLabels(ctx: CanvasRenderingContext2D, trial: PublicTrial, pr
   for (const zone of trial.zones) {
     const b = screenBox(zone.polygon);
     const text = zone.label ?? surfaceNames.get(zone.surfaceId) ?? zone.surfaceId;
-    label(text, (b.minX + b.maxX) / 2, b.maxY - 10, { size: 12, maxWidth: b.maxX - b.minX - 4 });
+    label(text, b.minX + 6, b.minY + 11, { size: 12, align: 'left', maxWidth: b.maxX - b.minX - 10 });
   }
 
   // Obstacles with a label, inside them when they are big enough.

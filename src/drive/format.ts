@@ -26,10 +26,9 @@ export function turnRate(value: number): string {
 
 /** Heading in degrees, 0 = east, counter-clockwise, as a compass-like word too. */
 export function heading(theta: number): string {
-  let deg = (theta * 180) / Math.PI;
-  deg = ((deg % 360) + 360) % 360;
+  const deg = (((Math.round((theta * 180) / Math.PI) % 360) + 360) % 360);
   const names = ['east', 'north-east', 'north', 'north-west', 'west', 'south-west', 'south', 'south-east'];
-  return `${deg.toFixed(0)}° (${names[Math.round(deg / 45) % 8]})`;
+  return `${deg}° (${names[Math.round(deg / 45) % 8]})`;
 }
 
 export const CALL_LABELS = {
