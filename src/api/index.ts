@@ -4,8 +4,10 @@
  */
 import type {
   ApiErrorBody,
+  AttemptReport,
   AttemptStart,
   AttemptSummary,
+  AuditEntry,
   AttemptView,
   BatchResult,
   CallAnswer,
@@ -18,11 +20,15 @@ import type {
   PublicLevel,
   PublicTrial,
   PublicUser,
+  ReviewInfo,
+  ReviewQueueItem,
+  ReviewQueueQuery,
   Role,
   SignIn,
   UserCreate,
   UserUpdate,
   USER_SORT_FIELDS,
+  VerdictInput,
 } from '@shared/schemas';
 import type { Command } from '@shared/sim';
 
@@ -282,6 +288,28 @@ export const attemptsApi = {
   examSeats: (signal?: AbortSignal) => request<{ available: number }>('GET', '/api/exam-seats', { signal }),
 };
 
+export const reportsApi = {
+  /** The attempt report; 409 `scoring` while the scoring job runs, 409 `not_submitted` before submission. */
+  get: (attemptId: string, signal?: AbortSignal) =>
+    request<AttemptReport>('GET', attemptPath(attemptId, '/report'), { signal }),
+};
+
+/** The assessor's queue filters and order, as GET /api/reviews takes them (all optional). */
+export type ReviewQueueParams = Partial<ReviewQueueQuery>;
+
+const reviewPath = (attemptId: string, tail = '') => `/api/reviews/${encodeURIComponent(attemptId)}${tail}`;
+
+export const reviewsApi = {
+  queue: (params: ReviewQueueParams = {}, signal?: AbortSignal) =>
+    request<Page<ReviewQueueItem>>('GET', '/api/reviews', { query: { ...params }, signal }),
+  claim: (attemptId: string) => request<{ review: ReviewInfo }>('POST', reviewPath(attemptId, '/claim')),
+  /** Signs a verdict on a claimed attempt (validate the body with verdictSchema first). */
+  verdict: (attemptId: string, body: VerdictInput) =>
+    request<{ review: ReviewInfo }>('POST', reviewPath(attemptId, '/verdict'), { body }),
+  audit: (attemptId: string, signal?: AbortSignal) =>
+    request<{ items: AuditEntry[] }>('GET', reviewPath(attemptId, '/audit'), { signal }),
+};
+
 /** All endpoints, grouped by resource. */
 export const api = {
   auth: authApi,
@@ -291,4 +319,6 @@ export const api = {
   mail: mailApi,
   trials: trialsApi,
   attempts: attemptsApi,
+  reports: reportsApi,
+  reviews: reviewsApi,
 };
