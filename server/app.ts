@@ -15,7 +15,10 @@ import { attemptRoutes } from './routes/attempts';
 import { authRoutes, SESSION_COOKIE } from './routes/auth';
 import { healthRoutes } from './routes/health';
 import { mailMessageRoutes } from './routes/mail-messages';
+import { organizationRoutes } from './routes/organizations';
+import { paymentRoutes, paymentWebhookRoute } from './routes/payments';
 import { reviewRoutes } from './routes/reviews';
+import { signupRoutes } from './routes/signup';
 import { trialRoutes } from './routes/trials';
 import { userRoutes } from './routes/users';
 
@@ -40,6 +43,8 @@ export function createApp(ctx: AppContext) {
       },
     }),
   );
+  // Signed webhooks are verified on their raw bytes, so this route comes before the JSON parser.
+  app.use('/api', paymentWebhookRoute(ctx));
   app.use(express.json({ limit: '100kb' }));
   app.use(
     session({
@@ -65,6 +70,9 @@ export function createApp(ctx: AppContext) {
   api.use(trialRoutes(ctx));
   api.use(attemptRoutes(ctx));
   api.use(reviewRoutes(ctx));
+  api.use(signupRoutes(ctx));
+  api.use(paymentRoutes(ctx));
+  api.use(organizationRoutes(ctx));
   api.use((req, _res, next) => next(new HttpError(404, 'not_found', `No API route for ${req.method} ${req.path}.`)));
   app.use('/api', api);
 

@@ -27,6 +27,10 @@ const envSchema = z.object({
   TRUST_PROXY: z.string().default('loopback'),
   SIGN_IN_LIMIT: z.coerce.number().int().min(1).default(5),
   JOB_WORKERS: z.enum(['0', '1']).default('1'),
+  STRIPE_SECRET_KEY: z.string().min(8).default('sk_test_driftproof_local_standin'),
+  STRIPE_WEBHOOK_SECRET: z.string().min(8).default('whsec_driftproof_local_standin'),
+  STRIPE_API_URL: z.url().optional(),
+  STRIPE_STANDIN_PORT: z.coerce.number().int().min(0).max(65535).default(12111),
   RESET_LIMIT: z.coerce.number().int().min(1).default(5),
 });
 
@@ -51,6 +55,13 @@ export interface Config {
   resetLimit: number;
   /** Whether this web process also runs the job workers. */
   jobWorkers: boolean;
+  stripe: {
+    secretKey: string;
+    webhookSecret: string;
+    /** Where the SDK sends its requests: the local stand-in (default) or, when unset and a live key is given, the real service. */
+    apiUrl?: string;
+    standinPort: number;
+  };
 }
 
 /** A session secret kept under .data so that sessions survive restarts on a developer's machine. */
@@ -89,5 +100,6 @@ export function loadConfig(source: NodeJS.ProcessEnv = process.env): Config {
     signInLimit: e.SIGN_IN_LIMIT,
     resetLimit: e.RESET_LIMIT,
     jobWorkers: e.JOB_WORKERS === '1',
+    stripe: { secretKey: e.STRIPE_SECRET_KEY, webhookSecret: e.STRIPE_WEBHOOK_SECRET, apiUrl: e.STRIPE_API_URL, standinPort: e.STRIPE_STANDIN_PORT },
   };
 }

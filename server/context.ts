@@ -1,5 +1,6 @@
 import connectPgSimple from 'connect-pg-simple';
 import session from 'express-session';
+import Stripe from 'stripe';
 import type { Sequelize } from 'sequelize';
 import type { DriveSim } from '../shared/sim';
 import { randomBytes } from 'node:crypto';
@@ -23,6 +24,21 @@ export interface AppContext {
   drives: DriveCache;
   /** Background work (scoring, e-mail) through the PostgreSQL job queue. */
   jobs: JobQueue;
+  /** The official SDK, pointed at the local stand-in or the real service. */
+  stripe: Stripe;
+}
+
+/** The stripe SDK for a base URL (the local stand-in) or, without one, the real service. */
+export function createStripeClient(secretKey: string, apiUrl?: string): Stripe {
+  if (!apiUrl) return new Stripe(secretKey, { maxNetworkRetries: 2, telemetry: false });
+  const url = new URL(apiUrl);
+  return new Stripe(secretKey, {
+    host: url.hostname,
+    port: Number(url.port),
+    protocol: url.protocol === 'https:' ? 'https' : 'http',
+    maxNetworkRetries: 0,
+    telemetry: false,
+  });
 }
 
 export interface DriveCache {
@@ -60,7 +76,7 @@ export interface ContextOptions {
 const PgSessionStore = connectPgSimple(session);
 
 /** Connects to the database and the SMTP server named by the config and the resolved URLs. */
-export function createContext(config: Config, urls: { databaseUrl: string; smtpUrl: string }, options: ContextOptions = {}): AppContext {
+export function createContext(config: Config, urls: { databaseUrl: string; smtpUrl: string; stripeApiUrl?: string }, options: ContextOptions = {}): AppContext {
   const sequelize = createDatabase(urls.databaseUrl);
   const sessionStore = new PgSessionStore({
     conString: urls.databaseUrl, // the store owns this pool and ends it on close()
@@ -77,6 +93,7 @@ export function createContext(config: Config, urls: { databaseUrl: string; smtpU
     content: options.content ?? loadContent(),
     newSeed: options.newSeed ?? (() => randomBytes(16).toString('hex')),
     drives: createDriveCache(),
+    stripe: createStripeClient(config.stripe.secretKey, urls.stripeApiUrl ?? config.stripe.apiUrl),
     jobs: createJobQueue(urls.databaseUrl, { pollingSeconds: config.env === 'test' ? 0.5 : 2 }),
   };
 }

@@ -18,7 +18,7 @@ export interface RunningServer {
   close(): Promise<void>;
 }
 
-export async function startServer(config: Config, urls: { databaseUrl: string; smtpUrl: string }, options: { seed?: boolean } = {}): Promise<RunningServer> {
+export async function startServer(config: Config, urls: { databaseUrl: string; smtpUrl: string; stripeApiUrl?: string }, options: { seed?: boolean } = {}): Promise<RunningServer> {
   const ctx = createContext(config, urls);
   await migrate(ctx.sequelize);
   if (options.seed) await seedDemo(ctx.sequelize, { password: config.demoPassword, bcryptCost: config.bcryptCost });

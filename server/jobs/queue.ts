@@ -10,6 +10,8 @@ import type { Transaction } from 'sequelize';
 export const JOBS = {
   scoreAttempt: 'score-attempt',
   resultMail: 'result-mail',
+  receiptMail: 'receipt-mail',
+  invitationMail: 'invitation-mail',
 } as const;
 export type JobName = (typeof JOBS)[keyof typeof JOBS];
 

@@ -4,14 +4,13 @@ import {
   attemptListQuerySchema,
   attemptParamsSchema,
   callAnswerSchema,
-  seatGrantSchema,
   stepBatchSchema,
 } from '../../shared/schemas';
 import { currentUser, guard } from '../auth/guard';
 import type { AppContext } from '../context';
 import { parseBody, parseParams, parseQuery } from '../http/validate';
 import { answerCall, applySteps, finishAttempt, listAttempts, startAttempt, viewAttempt } from '../services/attempts';
-import { availableExamSeats, grantExamSeats } from '../services/seats';
+import { availableExamSeats } from '../services/seats';
 
 export function attemptRoutes(ctx: AppContext) {
   const router = Router();
@@ -51,11 +50,6 @@ export function attemptRoutes(ctx: AppContext) {
 
   router.get('/exam-seats', operator, async (req, res) => {
     res.json({ available: await availableExamSeats(currentUser(req).id) });
-  });
-
-  router.post('/exam-seat-grants', guard(['admin']), async (req, res) => {
-    const { userId, count } = parseBody(seatGrantSchema, req);
-    res.status(201).json({ available: await grantExamSeats(userId, count, currentUser(req).id) });
   });
 
   return router;

@@ -5,6 +5,7 @@
  */
 import { loadConfig } from '../config';
 import { startMailSink } from '../fakes/mail-sink';
+import { startStripeStandin } from '../fakes/stripe-standin';
 import { closeOnSignals, startServer } from '../index';
 import { buildClientIfStale } from './client-build';
 import { resolveDatabaseUrl } from './database';
@@ -26,7 +27,16 @@ if (!smtpUrl) {
   log(`Mail sink (SMTP) on 127.0.0.1:${sink.port}; captured mail is on the admin's Mail sink page.`);
 }
 
-const server = await startServer(config, { databaseUrl, smtpUrl }, { seed: true });
+let stripeApiUrl = config.stripe.apiUrl;
+let closeStandin = async () => {};
+if (!stripeApiUrl && config.stripe.secretKey.startsWith('sk_test_driftproof')) {
+  const standin = await startStripeStandin({ port: config.stripe.standinPort, webhookUrl: `${config.appUrl}/api/payments/webhook`, webhookSecret: config.stripe.webhookSecret });
+  stripeApiUrl = standin.url;
+  closeStandin = standin.close;
+  log(`Payment stand-in on ${standin.url} (test cards on its payment page).`);
+}
+
+const server = await startServer(config, { databaseUrl, smtpUrl, stripeApiUrl }, { seed: true });
 log(`Database: ${config.databaseUrl ? 'DATABASE_URL' : `local PostgreSQL 15 on 127.0.0.1:${config.pgPort}`}`);
 log(`Driftproof is running at ${config.appUrl}  (sign in as admin@demo.driftproof.test)`);
-closeOnSignals(server.close, closeSink);
+closeOnSignals(server.close, closeSink, closeStandin);

@@ -78,7 +78,7 @@ export async function startAttempt(ctx: AppContext, actor: Actor, input: { trial
       },
       { transaction },
     );
-    if (input.mode === 'exam') await takeExamSeat(actor.id, created.id, transaction);
+    if (input.mode === 'exam') await takeExamSeat(actor.organizationId, created.id, actor.id, transaction);
     return created;
   });
   const sim = newDrive(ctx, attempt);

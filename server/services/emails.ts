@@ -49,3 +49,25 @@ export function resultEmail(to: string, name: string, trialTitle: string, outcom
     html: layout(lines, { href: link, label: 'Open the report' }, footer),
   };
 }
+
+export function emailConfirmationEmail(to: string, name: string, organization: string, link: string, hours: number): OutgoingMail {
+  const lines = [`Hello ${name},`, `Confirm this address to finish setting up ${organization} on Driftproof. Until then you cannot buy exam seats.`];
+  const footer = `The link works once and expires in ${hours} hours. If you did not sign up, ignore this e-mail.`;
+  return {
+    to,
+    subject: 'Confirm your e-mail for Driftproof',
+    text: `${lines.join('\n\n')}\n\n${link}\n\n${footer}\n`,
+    html: layout(lines, { href: link, label: 'Confirm my e-mail' }, footer),
+  };
+}
+
+export function operatorInvitationEmail(to: string, name: string, organization: string, link: string, hours: number): OutgoingMail {
+  const lines = [`Hello ${name},`, `${organization} has enrolled you on Driftproof, where you practise and take drive assessments for wheeled robots. Choose your password to join.`];
+  const footer = `The link works once and expires in ${hours} hours. Ask your employer to send a new one if it has expired.`;
+  return {
+    to,
+    subject: `${organization} invites you to Driftproof`,
+    text: `${lines.join('\n\n')}\n\n${link}\n\n${footer}\n`,
+    html: layout(lines, { href: link, label: 'Join and choose a password' }, footer),
+  };
+}

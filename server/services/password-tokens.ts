@@ -10,7 +10,7 @@ import type { AppContext } from '../context';
 import { PasswordToken, User } from '../db/models';
 import type { PasswordTokenPurpose } from '../db/models/password-token';
 import { HttpError } from '../http/errors';
-import { invitationEmail, passwordResetEmail } from './emails';
+import { invitationEmail, operatorInvitationEmail, passwordResetEmail } from './emails';
 import { endSessionsOf } from './sessions';
 
 export const RESET_MINUTES = 30;
@@ -21,14 +21,24 @@ const hashToken = (token: string) => createHash('sha256').update(token).digest('
 /** Issues a token (and retires the user's earlier unused ones of the same purpose). */
 export async function issuePasswordToken(userId: number, purpose: PasswordTokenPurpose, transaction?: Transaction): Promise<string> {
   const token = randomBytes(32).toString('base64url');
-  const ttlMs = purpose === 'reset' ? RESET_MINUTES * 60_000 : INVITATION_HOURS * 3_600_000;
+  const ttlMs = purpose === 'reset' ? RESET_MINUTES * 60_000 : INVITATION_HOURS * 3_600_000; // invitations and e-mail confirmations
   await PasswordToken.update({ usedAt: new Date() }, { where: { userId, purpose, usedAt: null }, transaction });
   await PasswordToken.create({ userId, purpose, tokenHash: hashToken(token), expiresAt: new Date(Date.now() + ttlMs), usedAt: null }, { transaction });
   return token;
 }
 
 export const passwordLink = (appUrl: string, token: string, purpose: PasswordTokenPurpose) =>
-  `${appUrl}/reset-password?token=${token}${purpose === 'invitation' ? '&invited=1' : ''}`;
+  purpose === 'email_confirmation' ? `${appUrl}/confirm-email?token=${token}` : `${appUrl}/reset-password?token=${token}${purpose === 'invitation' ? '&invited=1' : ''}`;
+
+/** Spends a token of the given purpose; returns its user id, or throws the invalid-link error. */
+export async function spendToken(token: string, purposes: PasswordTokenPurpose[], transaction: Transaction): Promise<number> {
+  const [count, spent] = await PasswordToken.update(
+    { usedAt: new Date() },
+    { where: { tokenHash: hashToken(token), purpose: purposes, usedAt: null, expiresAt: { [Op.gt]: new Date() } }, returning: true, transaction },
+  );
+  if (count !== 1) throw new HttpError(400, 'invalid_token', INVALID_TOKEN_MESSAGE);
+  return spent[0].userId;
+}
 
 /** Sends a reset link when an active account has this e-mail; says nothing either way. */
 export async function requestPasswordReset({ config, mailer }: AppContext, email: string): Promise<void> {
@@ -44,24 +54,19 @@ export const INVALID_TOKEN_MESSAGE = 'This link has already been used or has exp
 export async function confirmPasswordReset({ config, sequelize }: AppContext, token: string, password: string): Promise<void> {
   const passwordHash = await hashPassword(password, config.bcryptCost);
   await sequelize.transaction(async (transaction) => {
-    const [count, spent] = await PasswordToken.update(
-      { usedAt: new Date() },
-      {
-        where: { tokenHash: hashToken(token), usedAt: null, expiresAt: { [Op.gt]: new Date() } },
-        returning: true,
-        transaction,
-      },
-    );
-    if (count !== 1) throw new HttpError(400, 'invalid_token', INVALID_TOKEN_MESSAGE);
-    const userId = spent[0].userId;
-    const [updated] = await User.update({ passwordHash }, { where: { id: userId, active: true }, transaction });
+    const userId = await spendToken(token, ['reset', 'invitation'], transaction);
+    // Following an e-mailed link also proves the address.
+    const [updated] = await User.update({ passwordHash, emailConfirmedAt: new Date() }, { where: { id: userId, active: true }, transaction });
     if (updated !== 1) throw new HttpError(400, 'invalid_token', INVALID_TOKEN_MESSAGE);
     await PasswordToken.update({ usedAt: new Date() }, { where: { userId, usedAt: null }, transaction });
     await endSessionsOf(userId, transaction);
   });
 }
 
-export async function sendInvitation({ config, mailer }: AppContext, user: User, transaction?: Transaction) {
+export async function sendInvitation({ config, mailer }: AppContext, user: User, transaction?: Transaction, organizationName?: string) {
   const token = await issuePasswordToken(user.id, 'invitation', transaction);
-  await mailer.send(invitationEmail(user.email, user.name, passwordLink(config.appUrl, token, 'invitation'), INVITATION_HOURS));
+  const link = passwordLink(config.appUrl, token, 'invitation');
+  await mailer.send(
+    organizationName ? operatorInvitationEmail(user.email, user.name, organizationName, link, INVITATION_HOURS) : invitationEmail(user.email, user.name, link, INVITATION_HOURS),
+  );
 }

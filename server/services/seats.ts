@@ -1,37 +1,69 @@
 /**
- * Exam seats, for now as grants an admin gives an operator. The one function that takes a seat
- * (takeExamSeat) is all the drive code knows; the seats issue replaces it with the organization's
- * paid ledger.
+ * Exam seats: an append-only ledger per organization (purchase +n, grant +n, exam start −1, void
+ * +1, refund −n); the balance is the sum. Taking a seat locks the organization's row first, so
+ * parallel exam starts never spend more seats than there are.
  */
-import type { Transaction } from 'sequelize';
-import { ExamSeatGrant, User } from '../db/models';
-import { HttpError } from '../http/errors';
+import { QueryTypes, type Transaction } from 'sequelize';
+import { Organization, SeatLedgerEntry, User } from '../db/models';
+import { HttpError, notFound } from '../http/errors';
 
-/** Claims one free seat of the operator for the attempt, or refuses with 402. Safe under races. */
-export async function takeExamSeat(userId: number, attemptId: string, transaction: Transaction): Promise<void> {
-  const [rows] = (await ExamSeatGrant.sequelize!.query(
-    `UPDATE exam_seat_grants SET attempt_id = :attemptId, used_at = now()
-     WHERE id = (SELECT id FROM exam_seat_grants WHERE user_id = :userId AND attempt_id IS NULL ORDER BY id LIMIT 1 FOR UPDATE SKIP LOCKED)
-     RETURNING id`,
-    { replacements: { userId, attemptId }, transaction },
-  )) as [{ id: number }[], unknown];
-  if (rows.length === 0) throw new HttpError(402, 'no_exam_seat', 'You have no exam seat left. Ask your employer for one, or drive in practice mode.');
+export async function seatBalance(organizationId: number, transaction?: Transaction): Promise<number> {
+  const [row] = await SeatLedgerEntry.sequelize!.query<{ balance: number }>(
+    'SELECT coalesce(sum(delta), 0)::int AS balance FROM seat_ledger WHERE organization_id = :organizationId',
+    { replacements: { organizationId }, type: QueryTypes.SELECT, transaction },
+  );
+  return row.balance;
 }
 
-export async function availableExamSeats(userId: number): Promise<number> {
-  return ExamSeatGrant.count({ where: { userId, attemptId: null } });
+/**
+ * Serialises seat changes of one organization. FOR NO KEY UPDATE, not FOR UPDATE: rows inserted in
+ * the same transaction that reference the organization take FOR KEY SHARE, which this does not
+ * conflict with, so two exam starts queue here instead of deadlocking.
+ */
+export async function lockOrganization(organizationId: number, transaction: Transaction) {
+  const org = await Organization.findByPk(organizationId, { transaction, lock: transaction.LOCK.NO_KEY_UPDATE });
+  if (!org) throw notFound('That organization');
+  return org;
 }
 
-export async function grantExamSeats(userId: number, count: number, grantedBy: number): Promise<number> {
-  const user = await User.findByPk(userId);
-  if (!user || user.role !== 'operator') {
-    throw new HttpError(400, 'validation_failed', 'Some fields need attention.', { userId: 'Exam seats go to operator accounts.' });
+/** Spends one of the organization's seats on an exam attempt, or refuses with 402. */
+export async function takeExamSeat(organizationId: number | null, attemptId: string, actorId: number, transaction: Transaction): Promise<void> {
+  if (organizationId === null) throw new HttpError(402, 'no_exam_seat', 'Exam drives need an organization with seats.');
+  await lockOrganization(organizationId, transaction);
+  if ((await seatBalance(organizationId, transaction)) < 1) {
+    throw new HttpError(402, 'no_exam_seat', 'Your organization has no exam seat left. Ask your employer to buy seats, or drive in practice mode.');
   }
-  await ExamSeatGrant.bulkCreate(Array.from({ length: count }, () => ({ userId, grantedBy, attemptId: null, usedAt: null })));
-  return availableExamSeats(userId);
+  await SeatLedgerEntry.create({ organizationId, delta: -1, kind: 'exam_start', attemptId, actorId, orderId: null }, { transaction });
 }
 
-/** Gives the seat of a voided exam attempt back (a technical fault is not the operator's loss). */
+/** Gives the seat of a voided exam attempt back to its organization (once). */
 export async function returnExamSeat(attemptId: string, transaction: Transaction): Promise<void> {
-  await ExamSeatGrant.update({ attemptId: null, usedAt: null }, { where: { attemptId }, transaction });
+  const start = await SeatLedgerEntry.findOne({ where: { attemptId, kind: 'exam_start' }, transaction });
+  if (!start) return;
+  await SeatLedgerEntry.findOrCreate({
+    where: { attemptId, kind: 'void_return' },
+    defaults: { organizationId: start.organizationId, delta: 1, kind: 'void_return', attemptId, actorId: null, orderId: null },
+    transaction,
+  });
 }
+
+/** Seats an admin gives an organization without payment (demo, goodwill). */
+export async function grantSeats(organizationId: number, count: number, actorId: number): Promise<number> {
+  return SeatLedgerEntry.sequelize!.transaction(async (transaction) => {
+    await lockOrganization(organizationId, transaction);
+    await SeatLedgerEntry.create({ organizationId, delta: count, kind: 'grant', actorId, attemptId: null, orderId: null }, { transaction });
+    return seatBalance(organizationId, transaction);
+  });
+}
+
+/** The seats an operator's organization has left. */
+export async function availableExamSeats(userId: number): Promise<number> {
+  const user = await User.findByPk(userId);
+  return user?.organizationId ? seatBalance(user.organizationId) : 0;
+}
+
+export async function ledgerOf(organizationId: number, limit = 50) {
+  const rows = await SeatLedgerEntry.findAll({ where: { organizationId }, order: [['id', 'DESC']], limit });
+  return rows.map((r) => ({ id: Number(r.id), delta: r.delta, kind: r.kind, orderId: r.orderId, attemptId: r.attemptId, createdAt: r.createdAt.toISOString() }));
+}
+

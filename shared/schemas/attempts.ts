@@ -48,10 +48,6 @@ export const attemptListQuerySchema = pageQuerySchema.extend({
   userId: idSchema.optional(),
 });
 
-export const seatGrantSchema = z.strictObject({
-  userId: idSchema,
-  count: z.number().int().min(1, 'Grant at least one seat.').max(50, 'Grant at most 50 seats at a time.'),
-});
 
 export interface AttemptSummary {
   id: string;

@@ -8,3 +8,4 @@ export * from './organizations';
 export * from './content';
 export * from './attempts';
 export * from './reviews';
+export * from './employers';

@@ -60,6 +60,8 @@ export interface PublicUser {
   organizationName: string | null;
   active: boolean;
   lastSignInAt: string | null;
+  /** False only for a self-registered employer who has not followed the confirmation link yet. */
+  emailConfirmed: boolean;
   createdAt: string;
 }
 

@@ -168,7 +168,7 @@ describe("the assessor's review", () => {
     await admin.post('/api/users').send({ email, name: 'Switching Role', role: 'operator', organizationId: 1 }).expect(201);
     const user = (await User.findOne({ where: { email } }))!;
     await user.update({ passwordHash: await hashPassword('switching-role-pw', 4) });
-    await admin.post('/api/exam-seat-grants').send({ userId: user.id, count: 1 }).expect(201);
+    await admin.post('/api/organizations/1/seat-grants').send({ count: 1 }).expect(201);
     const operator = request.agent(t.app);
     await operator.post('/api/auth/sign-in').send({ email, password: 'switching-role-pw' }).expect(200);
     const own = await submittedDrive(operator, 'dock-door-three', 'exam', () => 'creep');

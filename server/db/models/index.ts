@@ -4,13 +4,15 @@ import { AttemptLogEntry } from './attempt-log-entry';
 import { AttemptReview } from './attempt-review';
 import { AttemptScore } from './attempt-score';
 import { ReviewAuditEntry } from './review-audit-entry';
-import { ExamSeatGrant } from './exam-seat-grant';
+import { LevelAssignment } from './level-assignment';
+import { SeatLedgerEntry } from './seat-ledger-entry';
+import { SeatOrder } from './seat-order';
 import { MailMessage } from './mail-message';
 import { Organization } from './organization';
 import { PasswordToken } from './password-token';
 import { User } from './user';
 
-export { Attempt, AttemptLogEntry, AttemptReview, AttemptScore, ExamSeatGrant, ReviewAuditEntry, MailMessage, Organization, PasswordToken, User };
+export { Attempt, AttemptLogEntry, AttemptReview, AttemptScore, LevelAssignment, ReviewAuditEntry, SeatLedgerEntry, SeatOrder, MailMessage, Organization, PasswordToken, User };
 
 /** Registers every model and association on a Sequelize instance. */
 export function initModels(sequelize: Sequelize) {
@@ -20,7 +22,9 @@ export function initModels(sequelize: Sequelize) {
   MailMessage.initModel(sequelize);
   Attempt.initModel(sequelize);
   AttemptLogEntry.initModel(sequelize);
-  ExamSeatGrant.initModel(sequelize);
+  SeatLedgerEntry.initModel(sequelize);
+  SeatOrder.initModel(sequelize);
+  LevelAssignment.initModel(sequelize);
   AttemptScore.initModel(sequelize);
   AttemptReview.initModel(sequelize);
   ReviewAuditEntry.initModel(sequelize);

@@ -4,6 +4,8 @@ import { DataTypes, Model, type CreationOptional, type InferAttributes, type Inf
 export class Organization extends Model<InferAttributes<Organization>, InferCreationAttributes<Organization>> {
   declare id: CreationOptional<number>;
   declare name: string;
+  declare billingEmail: CreationOptional<string | null>;
+  declare address: CreationOptional<string | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 
@@ -12,6 +14,8 @@ export class Organization extends Model<InferAttributes<Organization>, InferCrea
       {
         id: { type: DataTypes.INTEGER, autoIncrement: true, primaryKey: true },
         name: { type: DataTypes.TEXT, allowNull: false },
+        billingEmail: { type: DataTypes.TEXT, allowNull: true },
+        address: { type: DataTypes.TEXT, allowNull: true },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },

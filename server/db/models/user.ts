@@ -20,6 +20,8 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
   declare passwordHash: string | null;
   declare active: CreationOptional<boolean>;
   declare lastSignInAt: Date | null;
+  /** When the owner proved the address by a link; null until then (self sign-up only). */
+  declare emailConfirmedAt: CreationOptional<Date | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
   declare organization?: NonAttribute<Organization | null>;
@@ -35,6 +37,7 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
       organizationName: this.organization?.name ?? null,
       active: this.active,
       lastSignInAt: this.lastSignInAt?.toISOString() ?? null,
+      emailConfirmed: this.emailConfirmedAt != null,
       createdAt: this.createdAt.toISOString(),
     };
   }
@@ -50,6 +53,7 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
         passwordHash: { type: DataTypes.TEXT, allowNull: true },
         active: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
         lastSignInAt: { type: DataTypes.DATE, allowNull: true },
+        emailConfirmedAt: { type: DataTypes.DATE, allowNull: true, defaultValue: DataTypes.NOW },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },

@@ -25,6 +25,7 @@ function user(role: Role, id = 1): PublicUser {
     organizationName: role === 'admin' || role === 'assessor' ? null : 'Demo Logistics',
     active: true,
     lastSignInAt: null,
+    emailConfirmed: true,
     createdAt: '2026-01-01T00:00:00.000Z',
   };
 }
