@@ -1,10 +1,10 @@
 import express, { Router } from 'express';
 import { z } from 'zod';
-import { refundSchema, seatPricingSchema } from '../../shared/schemas';
+import { idSchema, refundSchema, seatPricingSchema } from '../../shared/schemas';
 import { currentUser, guard } from '../auth/guard';
 import type { AppContext } from '../context';
-import { parseBody, parseParams } from '../http/validate';
-import { handlePaymentWebhook, refundSeats } from '../services/payments';
+import { parseBody, parseParams, parseQuery } from '../http/validate';
+import { handlePaymentWebhook, listOrders, refundSeats } from '../services/payments';
 import { seatPricing, setSeatPricing } from '../services/pricing';
 
 /** The payment webhook needs the raw body to verify its signature: mounted before the JSON parser. */
@@ -28,6 +28,11 @@ export function paymentRoutes(ctx: AppContext) {
 
   router.put('/pricing', admin, async (req, res) => {
     res.json({ pricing: await setSeatPricing(ctx, parseBody(seatPricingSchema, req)) });
+  });
+
+  router.get('/orders', admin, async (req, res) => {
+    const { organizationId } = parseQuery(z.strictObject({ organizationId: idSchema.optional() }), req);
+    res.json({ items: await listOrders(organizationId) });
   });
 
   router.post('/orders/:orderId/refunds', admin, async (req, res) => {

@@ -7,7 +7,7 @@ import { randomUUID } from 'node:crypto';
 import type Stripe from 'stripe';
 import { unitPriceFor, type SeatOrderView } from '../../shared/schemas';
 import type { AppContext } from '../context';
-import { SeatLedgerEntry, SeatOrder, User } from '../db/models';
+import { Organization, SeatLedgerEntry, SeatOrder, User } from '../db/models';
 import { HttpError, notFound } from '../http/errors';
 import { JOBS } from '../jobs/queue';
 import { seatPricing } from './pricing';
@@ -119,6 +119,13 @@ export async function refundSeats(ctx: AppContext, actor: Express.User, orderId:
     await SeatLedgerEntry.create({ organizationId: order.organizationId, delta: -quantity, kind: 'refund', orderId: order.id, attemptId: null, actorId: actor.id }, { transaction });
     return orderView(order);
   });
+}
+
+/** Orders for the admin, newest first, with the organization's name. */
+export async function listOrders(organizationId?: number): Promise<(SeatOrderView & { organizationId: number; organizationName: string })[]> {
+  const rows = await SeatOrder.findAll({ where: organizationId ? { organizationId } : {}, order: [['createdAt', 'DESC']], limit: 200 });
+  const names = new Map((await Organization.findAll({ where: { id: [...new Set(rows.map((r) => r.organizationId))] } })).map((o) => [o.id, o.name]));
+  return rows.map((r) => ({ ...orderView(r), organizationId: r.organizationId, organizationName: names.get(r.organizationId) ?? '' }));
 }
 
 export async function ordersOf(organizationId: number, limit = 50): Promise<SeatOrderView[]> {
