@@ -11,7 +11,8 @@ export function trialRoutes({ content }: AppContext) {
   const router = Router();
   const signedIn = guard('signed-in');
 
-  router.get('/levels', signedIn, (_req, res) => {
+  // Public: the landing page describes the levels.
+  router.get('/levels', (_req, res) => {
     res.json({ items: listLevels(content) });
   });
 
