@@ -13,6 +13,7 @@ import type { AppContext } from './context';
 import { errorHandler, HttpError } from './http/errors';
 import { attemptRoutes } from './routes/attempts';
 import { authRoutes, SESSION_COOKIE } from './routes/auth';
+import { credentialRoutes } from './routes/credentials';
 import { healthRoutes } from './routes/health';
 import { mailMessageRoutes } from './routes/mail-messages';
 import { organizationRoutes } from './routes/organizations';
@@ -73,6 +74,7 @@ export function createApp(ctx: AppContext) {
   api.use(signupRoutes(ctx));
   api.use(paymentRoutes(ctx));
   api.use(organizationRoutes(ctx));
+  api.use(credentialRoutes(ctx));
   api.use((req, _res, next) => next(new HttpError(404, 'not_found', `No API route for ${req.method} ${req.path}.`)));
   app.use('/api', api);
 

@@ -12,6 +12,9 @@ export const JOBS = {
   resultMail: 'result-mail',
   receiptMail: 'receipt-mail',
   invitationMail: 'invitation-mail',
+  credentialPdf: 'credential-pdf',
+  credentialNotice: 'credential-notice',
+  renewalReminders: 'renewal-reminders',
 } as const;
 export type JobName = (typeof JOBS)[keyof typeof JOBS];
 
@@ -20,6 +23,8 @@ export interface JobQueue {
   send(name: JobName, data: object, options?: { transaction?: Transaction; singletonKey?: string }): Promise<void>;
   /** Runs `handler` for jobs of `name` in this process. */
   work<T extends object>(name: JobName, handler: (data: T) => Promise<void>): Promise<void>;
+  /** Runs a job of `name` on a cron schedule (one schedule per name, whoever registers it). */
+  schedule(name: JobName, cron: string): Promise<void>;
   stop(): Promise<void>;
 }
 
@@ -45,6 +50,10 @@ export function createJobQueue(databaseUrl: string, options: { pollingSeconds?: 
       await boss.work(name, { pollingIntervalSeconds: options.pollingSeconds ?? 2, batchSize: 1 }, async (jobs) => {
         for (const job of jobs) await handler(job.data as never);
       });
+    },
+    async schedule(name, cron) {
+      await ready();
+      await boss.schedule(name, cron, {}, { tz: 'UTC' });
     },
     async stop() {
       if (started) await boss.stop({ graceful: true, wait: true, timeout: 10_000 });

@@ -10,6 +10,7 @@ import { Attempt, AttemptScore, ReviewAuditEntry, User } from '../db/models';
 import type { ReviewStatus } from '../db/models/attempt-score';
 import { JOBS } from '../jobs/queue';
 import { driveOf } from './attempts';
+import { issueCredentialsFor } from './credentials';
 import { resultEmail } from './emails';
 
 /** Computes the score of a submitted attempt from its stored log. */
@@ -82,6 +83,10 @@ export async function finalize(ctx: AppContext, row: AttemptScore, result: Score
     { transaction },
   );
   await ctx.jobs.send(JOBS.resultMail, { attemptId: row.attemptId }, { transaction, singletonKey: row.attemptId });
+  if (result?.passed) {
+    const attempt = (await Attempt.findByPk(row.attemptId, { transaction }))!;
+    if (attempt.mode === 'exam') await issueCredentialsFor(ctx, attempt.userId, transaction);
+  }
 }
 
 /** The job: tells the operator their result is final. */

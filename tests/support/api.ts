@@ -5,6 +5,8 @@ import { createApp } from '../../server/app';
 import { loadConfig } from '../../server/config';
 import { closeContext, createContext, type AppContext, type ContextOptions } from '../../server/context';
 import { DEMO_DOMAIN } from '../../server/db/seeders/0001-demo-organization';
+import { Op } from 'sequelize';
+import { containsPattern } from '../../server/db/like';
 import { MailMessage } from '../../server/db/models';
 import type { Role } from '../../shared/schemas';
 import { testEnv } from './test-env';
@@ -48,7 +50,7 @@ export async function latestMailTo(address: string, after = new Date(0), waitMs 
 /** A message to an address whose text contains `text`, waiting briefly for delivery (other jobs may mail the same address). */
 export async function mailContaining(address: string, text: string, waitMs = 10_000): Promise<MailMessage> {
   for (let waited = 0; waited <= waitMs; waited += 100) {
-    const messages = await MailMessage.findAll({ where: { envelopeTo: address }, order: [['id', 'DESC']], limit: 50 });
+    const messages = await MailMessage.findAll({ where: { envelopeTo: { [Op.iLike]: containsPattern(address) } }, order: [['id', 'DESC']], limit: 50 });
     const found = messages.find((m) => (m.textBody ?? '').includes(text));
     if (found) return found;
     await new Promise((r) => setTimeout(r, 100));

@@ -4,6 +4,7 @@ import { AttemptLogEntry } from './attempt-log-entry';
 import { AttemptReview } from './attempt-review';
 import { AttemptScore } from './attempt-score';
 import { ReviewAuditEntry } from './review-audit-entry';
+import { Credential } from './credential';
 import { LevelAssignment } from './level-assignment';
 import { SeatLedgerEntry } from './seat-ledger-entry';
 import { SeatOrder } from './seat-order';
@@ -12,7 +13,7 @@ import { Organization } from './organization';
 import { PasswordToken } from './password-token';
 import { User } from './user';
 
-export { Attempt, AttemptLogEntry, AttemptReview, AttemptScore, LevelAssignment, ReviewAuditEntry, SeatLedgerEntry, SeatOrder, MailMessage, Organization, PasswordToken, User };
+export { Attempt, AttemptLogEntry, AttemptReview, AttemptScore, Credential, LevelAssignment, ReviewAuditEntry, SeatLedgerEntry, SeatOrder, MailMessage, Organization, PasswordToken, User };
 
 /** Registers every model and association on a Sequelize instance. */
 export function initModels(sequelize: Sequelize) {
@@ -25,6 +26,7 @@ export function initModels(sequelize: Sequelize) {
   SeatLedgerEntry.initModel(sequelize);
   SeatOrder.initModel(sequelize);
   LevelAssignment.initModel(sequelize);
+  Credential.initModel(sequelize);
   AttemptScore.initModel(sequelize);
   AttemptReview.initModel(sequelize);
   ReviewAuditEntry.initModel(sequelize);
@@ -40,4 +42,6 @@ export function initModels(sequelize: Sequelize) {
   Attempt.hasOne(AttemptReview, { foreignKey: 'attemptId', as: 'review' });
   AttemptReview.belongsTo(User, { foreignKey: 'assessorId', as: 'assessor' });
   ReviewAuditEntry.belongsTo(User, { foreignKey: 'actorId', as: 'actor' });
+  Credential.belongsTo(User, { foreignKey: 'userId', as: 'holder' });
+  Credential.belongsTo(Organization, { foreignKey: 'organizationId', as: 'organization' });
 }

@@ -1,0 +1,62 @@
+import { Router, type Request, type Response } from 'express';
+import multer from 'multer';
+import { z } from 'zod';
+import { idParamsSchema } from '../../shared/schemas';
+import { currentUser, guard } from '../auth/guard';
+import type { AppContext } from '../context';
+import { HttpError } from '../http/errors';
+import { createLimiter } from '../http/rate-limit';
+import { parseBody, parseParams, parseQuery } from '../http/validate';
+import { bulkResultsCsv, bulkVerify, credentialPdfFor, listCredentials, revokeCredential, verifyCredential } from '../services/credentials';
+
+const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: 1024 * 1024, files: 1, fields: 5 } });
+
+function csvFile(req: Request, res: Response): Promise<Buffer> {
+  return new Promise((resolve, reject) => {
+    upload.single('numbers')(req, res, (error: unknown) => {
+      if (error instanceof multer.MulterError) {
+        return reject(error.code === 'LIMIT_FILE_SIZE' ? new HttpError(413, 'file_too_large', 'A file of numbers is at most 1 MB.') : new HttpError(400, 'bad_upload', `The upload was refused: ${error.message}.`));
+      }
+      if (error) return reject(error);
+      if (!req.file) return reject(new HttpError(400, 'no_file', 'Attach a CSV file in the field "numbers".'));
+      resolve(req.file.buffer);
+    });
+  });
+}
+
+export function credentialRoutes(ctx: AppContext) {
+  const router = Router();
+  const verifyLimit = createLimiter(ctx.sequelize, { name: 'verify', limit: 60, windowMinutes: 1, message: 'Too many checks from your network. Wait a minute and try again.' });
+
+  router.get('/credentials', guard('signed-in'), async (req, res) => {
+    const { expiringWithinDays } = parseQuery(z.strictObject({ expiringWithinDays: z.coerce.number().int().min(1).max(366).optional() }), req);
+    res.json({ items: await listCredentials(ctx, currentUser(req), { expiringWithinDays }) });
+  });
+
+  router.get('/credentials/:id/pdf', guard(['operator', 'employer', 'admin']), async (req, res) => {
+    const { number, pdf } = await credentialPdfFor(ctx, currentUser(req), parseParams(idParamsSchema, req).id);
+    res.type('application/pdf').attachment(`driftproof-${number}.pdf`).send(pdf);
+  });
+
+  router.post('/credentials/:id/revoke', guard(['admin', 'assessor']), async (req, res) => {
+    const { reason } = parseBody(z.strictObject({ reason: z.string({ error: 'Write the reason.' }).trim().min(10, 'Write the reason in at least 10 characters.').max(2000) }), req);
+    res.json({ credential: await revokeCredential(ctx, currentUser(req), parseParams(idParamsSchema, req).id, reason) });
+  });
+
+  // Public, no sign-in: anyone holding a number (or the QR link) can check it.
+  router.get('/verify/:number', verifyLimit, async (req, res) => {
+    const { number } = parseParams(z.strictObject({ number: z.string().max(40) }), req);
+    const { s } = parseQuery(z.strictObject({ s: z.string().max(200).optional() }), req);
+    const result = await verifyCredential(ctx, number, s);
+    res.status(result.found ? 200 : 404).json(result.found ? { credential: result } : { error: { code: 'not_found', message: 'No credential has this number.' } });
+  });
+
+  router.post('/verify/bulk', guard(['hr', 'employer', 'admin']), verifyLimit, async (req, res) => {
+    const { format } = parseQuery(z.strictObject({ format: z.enum(['json', 'csv']).default('json') }), req);
+    const results = await bulkVerify(ctx, await csvFile(req, res));
+    if (format === 'csv') res.type('text/csv').attachment('driftproof-verification.csv').send(bulkResultsCsv(results));
+    else res.json({ items: results });
+  });
+
+  return router;
+}
