@@ -1,12 +1,12 @@
 import { execFileSync } from 'node:child_process';
 import { mkdtempSync, writeFileSync } from 'node:fs';
 import path from 'node:path';
-import { randomUUID } from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import request from 'supertest';
-import { Attempt, AttemptScore, Credential, User } from '../../server/db/models';
+import { User } from '../../server/db/models';
 import { ensureDebianPackage } from '../../server/scripts/apt';
 import { issueCredentialsFor, makeCertificate, queueRenewalReminders, renderCertificate } from '../../server/services/credentials';
+import { credentialHolder } from '../support/credentials';
 import { PROJECT_ROOT } from '../../server/config';
 import { createTestApp, mailContaining, resetRateLimits, signedInAgent, type TestApp } from '../support/api';
 import { startWorkers } from '../../server/jobs/workers';
@@ -20,27 +20,7 @@ beforeAll(async () => {
 });
 afterAll(() => t.close());
 
-/** An operator of the demo organization who passed both exam trials of "aisle-operator", with final results. */
-async function holder(name: string, now = new Date()): Promise<{ user: User; credential: Credential }> {
-  const email = `${randomUUID().slice(0, 8)}@demo.driftproof.test`;
-  const user = await User.create({ email, name, role: 'operator', organizationId: 1, passwordHash: null, lastSignInAt: null });
-  const credential = await t.ctx.sequelize.transaction(async (transaction) => {
-    for (const trialId of ['long-aisle-run', 'rack-end-slalom']) {
-      const attempt = await Attempt.create(
-        { id: randomUUID(), userId: user.id, organizationId: 1, trialId, contentHash: t.ctx.content.trialHashes.get(trialId)!, mode: 'exam', status: 'submitted', secretSeed: 's', publicSeed: 'p', submittedAt: now },
-        { transaction },
-      );
-      await AttemptScore.create(
-        { attemptId: attempt.id, version: 'scoring-1', result: {} as never, total: 90, passed: true, flagged: false, reviewStatus: 'confirmed', finalResult: {} as never, finalPassed: true, finalizedAt: now },
-        { transaction },
-      );
-    }
-    const issued = await issueCredentialsFor(t.ctx, user.id, transaction, now);
-    expect(issued.map((c) => c.levelId)).toEqual(['aisle-operator']);
-    return issued[0];
-  });
-  return { user, credential };
-}
+const holder = (name: string, now = new Date()) => credentialHolder(t.ctx, name, now);
 
 describe('issuing', () => {
   it('issues once per level when every required trial is passed with a final result', async () => {
