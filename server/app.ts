@@ -11,6 +11,8 @@ import { configurePassport } from './auth/passport';
 import { PROJECT_ROOT } from './config';
 import type { AppContext } from './context';
 import { errorHandler, HttpError } from './http/errors';
+import { sameOriginOnly } from './http/same-origin';
+import { absoluteSessionLimit, IDLE_HOURS } from './http/session-limits';
 import { attemptRoutes } from './routes/attempts';
 import { authRoutes, SESSION_COOKIE } from './routes/auth';
 import { credentialRoutes } from './routes/credentials';
@@ -24,7 +26,16 @@ import { trialRoutes } from './routes/trials';
 import { userRoutes } from './routes/users';
 
 export const CLIENT_DIR = path.join(PROJECT_ROOT, 'dist');
-const SESSION_HOURS = 12;
+
+/** The app's own origin, its loopback twin (localhost ↔ 127.0.0.1), and in development the Vite dev server. */
+function allowedOrigins(config: AppContext['config']): string[] {
+  const origins = [config.appUrl];
+  const url = new URL(config.appUrl);
+  const twin = url.hostname === '127.0.0.1' ? 'localhost' : url.hostname === 'localhost' ? '127.0.0.1' : null;
+  if (twin) origins.push(`${url.protocol}//${twin}${url.port ? `:${url.port}` : ''}`);
+  if (config.env === 'development') origins.push('http://127.0.0.1:5173', 'http://localhost:5173');
+  return origins;
+}
 
 export function createApp(ctx: AppContext) {
   const { config } = ctx;
@@ -46,6 +57,7 @@ export function createApp(ctx: AppContext) {
   );
   // Signed webhooks are verified on their raw bytes, so this route comes before the JSON parser.
   app.use('/api', paymentWebhookRoute(ctx));
+  app.use('/api', sameOriginOnly(allowedOrigins(config)));
   app.use(express.json({ limit: '100kb' }));
   app.use(
     session({
@@ -56,9 +68,10 @@ export function createApp(ctx: AppContext) {
       saveUninitialized: false,
       rolling: true,
       proxy: secure,
-      cookie: { httpOnly: true, sameSite: 'lax', secure, maxAge: SESSION_HOURS * 3_600_000 },
+      cookie: { httpOnly: true, sameSite: 'lax', secure, maxAge: IDLE_HOURS * 3_600_000 },
     }),
   );
+  app.use(absoluteSessionLimit());
   const passport = configurePassport();
   app.use(passport.initialize());
   app.use(passport.session());

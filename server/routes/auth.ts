@@ -49,6 +49,7 @@ export function authRoutes(ctx: AppContext) {
   router.post('/sign-in', signInByAddress, signInByAccount, async (req, res) => {
     req.body = parseBody(signInSchema, req);
     const user = await signIn(req, res);
+    req.session.signedInAt = Date.now();
     res.json({ user });
   });
 

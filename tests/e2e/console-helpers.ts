@@ -123,3 +123,152 @@ export interface AttemptViewLike {
     log: { entryNo: number; kind: string; request: { fromSeq?: number; commands?: { v: number; w: number }[] }; response: { seq?: number } | null }[];
   };
 }
+
+const angleDiff = (a: number, b: number) => Math.atan2(Math.sin(a - b), Math.cos(a - b));
+
+interface Point {
+  x: number;
+  y: number;
+}
+
+/** The keys held now, pressed and released by difference. */
+export function keySet(page: Page) {
+  const held = new Set<string>();
+  return {
+    async set(wanted: string[]) {
+      for (const key of [...held]) {
+        if (!wanted.includes(key)) {
+          await page.keyboard.up(key);
+          held.delete(key);
+        }
+      }
+      for (const key of wanted) {
+        if (!held.has(key)) {
+          await page.keyboard.down(key);
+          held.add(key);
+        }
+      }
+    },
+    release() {
+      return this.set([]);
+    },
+  };
+}
+
+/** Nearest point on the polyline at or after segment `from`: its segment and the distance along the route to the end. */
+function progressOn(route: readonly Point[], p: Point, from: number) {
+  let best = { segment: from, t: 0, d: Infinity };
+  for (let s = from; s < route.length - 1; s++) {
+    const a = route[s];
+    const b = route[s + 1];
+    const dx = b.x - a.x;
+    const dy = b.y - a.y;
+    const l2 = dx * dx + dy * dy;
+    const t = l2 === 0 ? 0 : Math.max(0, Math.min(1, ((p.x - a.x) * dx + (p.y - a.y) * dy) / l2));
+    const d = Math.hypot(p.x - (a.x + t * dx), p.y - (a.y + t * dy));
+    if (d < best.d - 1e-9) best = { segment: s, t, d };
+  }
+  return best;
+}
+
+function pointAhead(route: readonly Point[], segment: number, t: number, distance: number): Point {
+  let s = segment;
+  let a = route[s];
+  let b = route[s + 1];
+  let x = a.x + t * (b.x - a.x);
+  let y = a.y + t * (b.y - a.y);
+  let left = distance;
+  while (s < route.length - 1) {
+    const rest = Math.hypot(b.x - x, b.y - y);
+    if (rest >= left) return { x: x + ((b.x - x) / rest) * left, y: y + ((b.y - y) / rest) * left };
+    left -= rest;
+    s += 1;
+    if (s >= route.length - 1) break;
+    a = route[s];
+    b = route[s + 1];
+    x = a.x;
+    y = a.y;
+  }
+  return route[route.length - 1];
+}
+
+export interface RouteDrive {
+  calls: string[];
+  contacts: number;
+}
+
+/**
+ * Drives a trial's route with the keyboard as a careful operator would: steer at a point a metre
+ * ahead on the route, turn on the spot for sharp corners, fine control near the end; at a call
+ * point place the pin at the believed position and proceed (re-anchor when a marker is in view);
+ * after a contact acknowledge it and back off. Stops on the dock and turns to its heading.
+ */
+export async function followRoute(page: Page, route: readonly Point[], dockTheta: number, timeout = 150_000): Promise<RouteDrive> {
+  const keys = keySet(page);
+  const end = Date.now() + timeout;
+  const out: RouteDrive = { calls: [], contacts: 0 };
+  const goal = route[route.length - 1];
+  let segment = 0;
+  try {
+    for (;;) {
+      if (Date.now() > end) throw new Error(`Route not finished in ${timeout} ms at ${JSON.stringify(await readPose(page))}`);
+      if (await page.getByTestId('contact-notice').isVisible()) {
+        await keys.release();
+        out.contacts += 1;
+        await page.getByRole('button', { name: 'I understand' }).click();
+        await keys.set(['ArrowDown']);
+        await page.waitForTimeout(700);
+        await keys.release();
+        continue;
+      }
+      const panel = page.getByTestId('call-panel');
+      if (await panel.isVisible()) {
+        await keys.release();
+        if (await panel.getByRole('button', { name: /the believed position/ }).isVisible()) {
+          await panel.getByRole('button', { name: /the believed position/ }).click();
+        }
+        const reanchor = page.getByLabel(/^Re-anchor/);
+        const call = (await reanchor.isEnabled()) ? 'Re-anchor' : 'Proceed';
+        out.calls.push(call);
+        await panel.getByText(call, { exact: true }).click();
+        await page.getByRole('button', { name: 'Make the call' }).click();
+        await panel.waitFor({ state: 'hidden', timeout: 15_000 });
+        await page.getByText('Passing the gap').waitFor({ state: 'hidden', timeout: 60_000 });
+        continue;
+      }
+      const pose = await readPose(page);
+      const near = progressOn(route, pose, segment);
+      segment = near.segment;
+      const toGoal = Math.hypot(goal.x - pose.x, goal.y - pose.y);
+      const onLast = segment === route.length - 2;
+      const last = route[route.length - 2];
+      const along = (goal.x - last.x) * (pose.x - goal.x) + (goal.y - last.y) * (pose.y - goal.y);
+      if (onLast && (toGoal < 0.06 || along > 0)) break;
+      const fine = toGoal < 2.5;
+      const target = pointAhead(route, segment, near.t, fine ? Math.max(0.3, Math.min(1, toGoal)) : 1.2);
+      const error = angleDiff(Math.atan2(target.y - pose.y, target.x - pose.x), pose.theta);
+      const turn = error > 0.04 ? 'ArrowLeft' : error < -0.04 ? 'ArrowRight' : null;
+      const wanted: string[] = [];
+      if (fine || Math.abs(error) > 0.25) wanted.push('Shift');
+      if (Math.abs(error) < 0.5) wanted.push('ArrowUp');
+      if (turn) wanted.push(turn);
+      await keys.set(wanted);
+      await page.waitForTimeout(50);
+    }
+    // On the dock: stop, then turn on the spot to the dock's heading.
+    await keys.release();
+    await page.waitForTimeout(800);
+    for (let i = 0; i < 200; i++) {
+      const pose = await readPose(page);
+      const error = angleDiff(dockTheta, pose.theta);
+      if (Math.abs(error) < 0.05) break;
+      await keys.set(['Shift', error > 0 ? 'ArrowLeft' : 'ArrowRight']);
+      await page.waitForTimeout(50);
+      await keys.release();
+      await page.waitForTimeout(150);
+    }
+  } finally {
+    await keys.release();
+  }
+  return out;
+}

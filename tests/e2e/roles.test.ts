@@ -15,10 +15,10 @@ import {
 } from './browser';
 
 const ACCOUNTS = [
-  { account: 'admin', home: '/admin', heading: 'Administrator home', role: 'Administrator', nav: ['Home', 'Users', 'Mail sink'], safety: false },
-  { account: 'employer', home: '/employer', heading: 'Employer home', role: 'Employer', nav: ['Home'], safety: true },
+  { account: 'admin', home: '/admin', heading: 'Administrator home', role: 'Administrator', nav: ['Home', 'Users', 'Orders', 'Pricing', 'Mail sink'], safety: false },
+  { account: 'employer', home: '/employer', heading: 'Employer home', role: 'Employer', nav: ['Home', 'Enrol', 'Seats', 'Organization'], safety: true },
   { account: 'hr', home: '/hr', heading: 'HR home', role: 'HR', nav: ['Home'], safety: true },
-  { account: 'assessor', home: '/assessor', heading: 'Assessor home', role: 'Assessor', nav: ['Home'], safety: false },
+  { account: 'assessor', home: '/assessor', heading: 'Assessor home', role: 'Assessor', nav: ['Home', 'Review queue'], safety: false },
   { account: 'operator1', home: '/operator', heading: 'Operator home', role: 'Operator', nav: ['Home', 'Trials'], safety: true },
   { account: 'operator2', home: '/operator', heading: 'Operator home', role: 'Operator', nav: ['Home', 'Trials'], safety: true },
 ] as const;

@@ -6,7 +6,7 @@
 import { describe, expect, it } from 'vitest';
 import type { TraceStep } from '@shared/sim';
 import { callPosition, contactEpisodes } from '@/components/report/report-logic';
-import { BeliefCursor, ReplayTrack, beliefFactory, play, seekClock, tickClock, timelinePercent, type ClockState } from '@/components/replay/replay';
+import { BeliefCursor, ReplayTrack, beliefFactory, play, replayPaths, seekClock, tickClock, timelinePercent, type ClockState } from '@/components/replay/replay';
 import { PUBLIC_SEED, scoredDrive, type ScoredDrive as Drive } from './report-fixtures';
 
 /** Every 5th particle, as shared/scoring samples 400 of 2,000 for the report. */
@@ -122,6 +122,15 @@ describe('positions in a trace', () => {
     expect(callPosition(trace, 0.4)).toBe(4);
     expect(callPosition(trace, 0)).toBe(0);
     expect(callPosition(trace, 0.1)).toBe(1);
+  });
+
+  it('paths so far: how many points of each path belong to every position', () => {
+    const paths = replayPaths(trace, pose(0));
+    expect(paths.believedEnd.length).toBe(trace.length + 1);
+    // Position 5 has applied the re-anchor: the believed path has its break and the new start.
+    expect(paths.believed.slice(0, paths.believedEnd[5] * 2)).toEqual([0, 0, 0.1, 0, 0.2, 0, 0.3, 0, 0.3, 0, NaN, NaN, 0.35, 0]);
+    expect(paths.truth.slice(0, paths.truthEnd[2] * 2)).toEqual([0, 0, 0.1, 0, 0.2, 0]);
+    expect(paths.truthEnd[trace.length] * 2).toBe(paths.truth.length);
   });
 
   it('consecutive contact steps on one obstacle are one episode', () => {

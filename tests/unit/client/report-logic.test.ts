@@ -8,6 +8,8 @@ import {
   amendedCalls,
   amendmentText,
   bandText,
+  callPosition,
+  chartDistanceAt,
   distanceDriven,
   drivePaths,
   percent,
@@ -125,5 +127,23 @@ describe('paths and pins', () => {
     expect(pinMiss({ estimate, truth: pose(1.3, 1.4) })).toEqual({ distance: 0.5, inside: true });
     expect(pinMiss({ estimate, truth: pose(2, 1) })?.inside).toBe(false);
     expect(pinMiss({ estimate: null, truth: pose(0) })).toBeNull();
+  });
+});
+
+describe('calls on the uncertainty chart', () => {
+  it('distances are counted as the scoring counts them, so calls line up with its chart', async () => {
+    const drive = await scoredDrive('wash-bay-crossing', (markers) => (markers.length ? 'reanchor' : 'halt'));
+    expect(drive.trace.some((s) => s.reanchor)).toBe(true);
+    const cumulative = new Set(drive.trace.map((_s, i) => chartDistanceAt(drive.trace, drive.trial.start, i + 1)));
+    cumulative.add(0);
+    // Every point of the scoring's chart sits exactly at one of these distances (same sums, same order).
+    for (const point of drive.score.uncertainty) expect(cumulative.has(point.distance), String(point.distance)).toBe(true);
+    const last = chartDistanceAt(drive.trace, drive.trial.start, drive.trace.length);
+    expect(last).toBeGreaterThanOrEqual(distanceDriven(drive.trace, drive.trial.start));
+    for (const call of drive.score.calls) {
+      const d = chartDistanceAt(drive.trace, drive.trial.start, callPosition(drive.trace, call.time));
+      expect(d).toBeGreaterThan(0);
+      expect(d).toBeLessThanOrEqual(last);
+    }
   });
 });

@@ -58,9 +58,9 @@ describe('decideNavigation (pure)', () => {
     }
   });
 
-  it('sends / to the role home, or to sign-in when nobody is signed in', () => {
+  it('sends / to the role home, or shows the landing page when nobody is signed in', () => {
     expect(decideNavigation(resolve('/'), user('hr'))).toEqual({ allow: false, redirect: '/hr' });
-    expect(decideNavigation(resolve('/'), null)).toEqual({ allow: false, redirect: { name: 'sign-in' } });
+    expect(decideNavigation(resolve('/'), null)).toEqual({ allow: true });
   });
 
   it('sends a wrong-role user to their own home with a notice', () => {
@@ -94,7 +94,8 @@ describe('decideNavigation (pure)', () => {
         expect(decideNavigation(resolve(link.to), user(role)), `${role} → ${link.to}`).toEqual({ allow: true });
       }
     }
-    expect(navigationFor('admin').map((l) => l.label)).toEqual(['Home', 'Users', 'Mail sink']);
+    expect(navigationFor('admin').map((l) => l.label)).toEqual(['Home', 'Users', 'Orders', 'Pricing', 'Mail sink']);
+    expect(navigationFor('employer').map((l) => l.label)).toEqual(['Home', 'Enrol', 'Seats', 'Organization']);
     expect(navigationFor('operator').map((l) => l.label)).toEqual(['Home', 'Trials']);
   });
 
