@@ -37,6 +37,9 @@ export function navigationFor(role: Role): NavLink[] {
   if (role === 'operator') {
     return [home, { label: 'Trials', to: '/operator/trials', icon: 'pi pi-map' }];
   }
+  if (role === 'assessor') {
+    return [home, { label: 'Review queue', to: '/assessor/reviews', icon: 'pi pi-inbox' }];
+  }
   return [home];
 }
 

@@ -84,6 +84,26 @@ export const routes: RouteRecordRaw[] = [
     meta: { roles: ['assessor'], title: 'Assessor home' },
   },
   {
+    path: '/assessor/reviews',
+    name: 'review-queue',
+    component: () => import('@/views/assessor/ReviewQueueView.vue'),
+    meta: { roles: ['assessor'], title: 'Review queue' },
+  },
+  {
+    path: '/assessor/reviews/:attemptId',
+    name: 'review-workspace',
+    // The replay carries konva: loaded with this route only.
+    component: () => import('@/views/assessor/ReviewWorkspaceView.vue'),
+    meta: { roles: ['assessor'], title: 'Review', wide: true },
+  },
+  {
+    path: '/attempts/:attemptId/report',
+    name: 'attempt-report',
+    // The report carries konva and chart.js: loaded with this route only.
+    component: () => import('@/views/report/AttemptReportView.vue'),
+    meta: { roles: ['operator', 'employer', 'assessor', 'admin'], title: 'Attempt report' },
+  },
+  {
     path: '/hr',
     name: 'hr-home',
     component: () => import('@/views/home/HrHomeView.vue'),

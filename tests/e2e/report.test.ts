@@ -6,7 +6,7 @@
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { SCREENSHOTS, baseUrl, demoEmail, demoPassword, launch, openPage, signIn, url, type Browser } from './browser';
-import { ApiSession, reportOf, submittedDrive } from './review-helpers';
+import { ApiSession, closeSettled, reportOf, submittedDrive } from './review-helpers';
 
 let browser: Browser;
 let attemptId: string;
@@ -62,7 +62,7 @@ describe('the attempt report', () => {
     await page.evaluate(() => document.fonts.ready);
     await page.screenshot({ path: join(SCREENSHOTS, 'report-operator.png'), fullPage: true, animations: 'disabled' });
     expect(errors).toEqual([]);
-    await page.close();
+    await closeSettled(page);
   });
 
   it('Print calls the browser’s print, and the print view drops the navigation and the buttons', async () => {
@@ -88,7 +88,7 @@ describe('the attempt report', () => {
     await page.emulateMedia({ media: 'screen' });
     expect(await page.getByRole('navigation', { name: 'Main' }).isVisible()).toBe(true);
     expect(errors).toEqual([]);
-    await page.close();
+    await closeSettled(page);
   });
 
   it('while the drive is being scored it says so and asks again by itself', async () => {
@@ -110,7 +110,7 @@ describe('the attempt report', () => {
     await page.locator('[data-testid="attempt-report"][data-phase="ready"]').waitFor({ timeout: 10_000 });
     expect(asked).toBe(3);
     expect(errors).toEqual([]);
-    await page.close();
+    await closeSettled(page);
   });
 
   it('the employer reads the report of one of their operators; another operator cannot', async () => {
@@ -121,12 +121,13 @@ describe('the attempt report', () => {
     expect(await page.locator('.page-header').innerText()).toContain('Long aisle run');
     await page.getByRole('link', { name: 'Employer home' }).waitFor();
 
+    await page.waitForLoadState('networkidle');
     await page.context().clearCookies();
     await signIn(page, demoEmail('operator1'));
     await page.goto(url(`/attempts/${attemptId}/report`));
     await page.locator('[data-testid="attempt-report"][data-phase="failed"]').waitFor();
     expect(await page.getByTestId('attempt-report').innerText()).toContain('The report could not be loaded');
     expect(errors).toEqual([]);
-    await page.close();
+    await closeSettled(page);
   });
 });

@@ -71,3 +71,13 @@ export async function reportOf(session: ApiSession, attemptId: string, timeoutMs
     await new Promise((resolve) => setTimeout(resolve, 250));
   }
 }
+
+/**
+ * Closes a page once its requests have settled. Sessions are rolling (every API answer renews the
+ * cookie), so an answer still on its way when the page closes can bring the session cookie back
+ * after the next test has cleared it.
+ */
+export async function closeSettled(page: { waitForLoadState(state: 'networkidle'): Promise<void>; close(): Promise<void> }): Promise<void> {
+  await page.waitForLoadState('networkidle').catch(() => undefined);
+  await page.close();
+}

@@ -9,7 +9,7 @@ import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { AttemptReport } from '../../shared/schemas';
 import { SCREENSHOTS, baseUrl, demoEmail, demoPassword, launch, navLinks, openPage, signIn, url, type Browser } from './browser';
-import { ApiSession, reportOf, submittedDrive } from './review-helpers';
+import { ApiSession, closeSettled, reportOf, submittedDrive } from './review-helpers';
 
 let browser: Browser;
 let operator: ApiSession;
@@ -64,7 +64,7 @@ describe("the assessor's review", () => {
     expect(await page.getByTestId('result').innerText()).toContain('Provisional');
     expect(await page.getByTestId('calls-table').innerText()).toContain('Unsafe');
     expect(errors).toEqual([]);
-    await page.close();
+    await closeSettled(page);
   });
 
   it('finds the attempts in the queue, filters it, claims one, replays it and confirms the score', async () => {
@@ -82,7 +82,7 @@ describe("the assessor's review", () => {
 
     // Filters: by trial (kept in the address), then by age: nothing is five hours old yet.
     await choose(page, 'Trial', 'Wash bay crossing');
-    await page.waitForURL((u) => u.searchParams.get('trial') === 'wash-bay-crossing');
+    await until(async () => new URL(page.url()).searchParams.get('trial') === 'wash-bay-crossing', `the trial in the address (${page.url()})`);
     await row(confirmId).waitFor();
     const age = page.getByLabel('Waiting at least');
     await age.click();
@@ -133,6 +133,7 @@ describe("the assessor's review", () => {
     await page.getByLabel('Reason (optional)').fill('Replay matches the scored calls; the door call was unsafe.');
     await signVerdict(page);
     await page.locator('[data-testid="review-workspace"][data-status="confirmed"]').waitFor();
+    await page.getByTestId('audit-log').getByText('Signed: confirmed').waitFor();
     expect(await page.getByTestId('review-panel').innerText()).toContain('Final result, confirmed');
     expect(await page.getByTestId('review-reason').innerText()).toBe('Replay matches the scored calls; the door call was unsafe.');
     const audit = await page.getByTestId('audit-log').innerText();
@@ -141,7 +142,7 @@ describe("the assessor's review", () => {
     expect(await page.getByTestId('verdict-panel').count()).toBe(0);
     await page.screenshot({ path: join(SCREENSHOTS, 'review-confirmed.png'), fullPage: true, animations: 'disabled' });
     expect(errors).toEqual([]);
-    await page.close();
+    await closeSettled(page);
   });
 
   it('amends a call’s grade with a reason; the report and the audit log show it', async () => {
@@ -172,6 +173,7 @@ describe("the assessor's review", () => {
     await signVerdict(page);
 
     await page.locator('[data-testid="review-workspace"][data-status="amended"]').waitFor();
+    await page.getByTestId('audit-log').getByText('Signed: amended').waitFor();
     expect(await page.getByTestId('amendments').innerText()).toContain(reason);
     const audit = await page.getByTestId('audit-log').innerText();
     expect(audit).toContain('Changed a call’s grade');
@@ -186,7 +188,7 @@ describe("the assessor's review", () => {
     await page.goto(url('/assessor/reviews?status=signed'));
     await page.getByTestId('review-queue').locator(`a[href="/assessor/reviews/${amendId}"]`).waitFor();
     expect(errors).toEqual([]);
-    await page.close();
+    await closeSettled(page);
   });
 
   it('the operator sees the final, amended report with the assessor’s reason', async () => {
@@ -211,6 +213,6 @@ describe("the assessor's review", () => {
     expect(await page.getByTestId('review-panel').getAttribute('data-status')).toBe('confirmed');
     expect(await page.getByTestId('result').innerText()).toContain('Not passed');
     expect(errors).toEqual([]);
-    await page.close();
+    await closeSettled(page);
   });
 });

@@ -175,3 +175,25 @@ export function seekClock(state: ClockState, position: number, last: number): Cl
 export function timelinePercent(position: number, last: number): number {
   return last <= 0 ? 0 : (100 * Math.max(0, Math.min(last, position))) / last;
 }
+
+/**
+ * The believed and true paths as flat x, y arrays (the believed one broken where the belief
+ * restarted), with how many points of each belong to the drive up to every position, so the
+ * replay can draw the paths "so far" without slicing.
+ */
+export function replayPaths(trace: readonly TraceStep[], start: Pose) {
+  const believed = [start.x, start.y];
+  const truth = [start.x, start.y];
+  const believedEnd = new Uint32Array(trace.length + 1);
+  const truthEnd = new Uint32Array(trace.length + 1);
+  believedEnd[0] = 1;
+  truthEnd[0] = 1;
+  trace.forEach((step, i) => {
+    if (step.reanchor) believed.push(NaN, NaN, step.odometry.x, step.odometry.y);
+    else believed.push(step.odometry.x, step.odometry.y);
+    truth.push(step.truth.x, step.truth.y);
+    believedEnd[i + 1] = believed.length / 2;
+    truthEnd[i + 1] = truth.length / 2;
+  });
+  return { believed, truth, believedEnd, truthEnd };
+}

@@ -250,6 +250,20 @@ export function distanceDriven(trace: readonly TraceStep[], start: Pose): number
   return d;
 }
 
+/**
+ * Odometry distance at a trace position as the scoring's uncertainty chart counts it (every step's
+ * odometry change, re-anchoring jumps included), so marks placed on that chart line up with it.
+ */
+export function chartDistanceAt(trace: readonly TraceStep[], start: Pose, position: number): number {
+  let d = 0;
+  let prev = start;
+  for (let i = 0; i < Math.min(position, trace.length); i++) {
+    d += Math.hypot(trace[i].odometry.x - prev.x, trace[i].odometry.y - prev.y);
+    prev = trace[i].odometry;
+  }
+  return d;
+}
+
 /** How far the true pose was from the estimate pin, and whether the pin's ring held it. */
 export function pinMiss(call: Pick<CallScore, 'estimate' | 'truth'>): { distance: number; inside: boolean } | null {
   if (!call.estimate) return null;
@@ -284,4 +298,26 @@ export function amendmentText(
     case 'time':
       return `Time part set to ${percent(a.timeScore, 0)}`;
   }
+}
+
+/** The box around the drive: both paths and, at each call, the ring, the cloud sample and the pin. */
+export function driveBox(trace: readonly TraceStep[], start: Pose, calls: readonly CallScore[]): { minX: number; minY: number; maxX: number; maxY: number } {
+  const box = { minX: start.x, minY: start.y, maxX: start.x, maxY: start.y };
+  const add = (x: number, y: number, r = 0) => {
+    box.minX = Math.min(box.minX, x - r);
+    box.minY = Math.min(box.minY, y - r);
+    box.maxX = Math.max(box.maxX, x + r);
+    box.maxY = Math.max(box.maxY, y + r);
+  };
+  for (const step of trace) {
+    add(step.odometry.x, step.odometry.y);
+    add(step.truth.x, step.truth.y);
+  }
+  for (const c of calls) {
+    add(c.belief.odometry.x, c.belief.odometry.y, c.belief.ring.major);
+    for (let i = 0; i < c.cloudSample.x.length; i++) add(c.cloudSample.x[i], c.cloudSample.y[i]);
+    if (c.estimate) add(c.estimate.pin.x, c.estimate.pin.y, c.estimate.pin.radius);
+  }
+  // A little room for the robot's footprint and the call numbers.
+  return { minX: box.minX - 1, minY: box.minY - 1, maxX: box.maxX + 1, maxY: box.maxY + 1 };
 }
