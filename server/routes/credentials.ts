@@ -1,28 +1,12 @@
-import { Router, type Request, type Response } from 'express';
-import multer from 'multer';
+import { Router } from 'express';
 import { z } from 'zod';
 import { idParamsSchema } from '../../shared/schemas';
 import { currentUser, guard } from '../auth/guard';
 import type { AppContext } from '../context';
-import { HttpError } from '../http/errors';
 import { createLimiter } from '../http/rate-limit';
+import { readUpload } from '../http/upload';
 import { parseBody, parseParams, parseQuery } from '../http/validate';
 import { bulkResultsCsv, bulkVerify, credentialPdfFor, listCredentials, revokeCredential, verifyCredential } from '../services/credentials';
-
-const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: 1024 * 1024, files: 1, fields: 5 } });
-
-function csvFile(req: Request, res: Response): Promise<Buffer> {
-  return new Promise((resolve, reject) => {
-    upload.single('numbers')(req, res, (error: unknown) => {
-      if (error instanceof multer.MulterError) {
-        return reject(error.code === 'LIMIT_FILE_SIZE' ? new HttpError(413, 'file_too_large', 'A file of numbers is at most 1 MB.') : new HttpError(400, 'bad_upload', `The upload was refused: ${error.message}.`));
-      }
-      if (error) return reject(error);
-      if (!req.file) return reject(new HttpError(400, 'no_file', 'Attach a CSV file in the field "numbers".'));
-      resolve(req.file.buffer);
-    });
-  });
-}
 
 export function credentialRoutes(ctx: AppContext) {
   const router = Router();
@@ -53,7 +37,7 @@ export function credentialRoutes(ctx: AppContext) {
 
   router.post('/verify/bulk', guard(['hr', 'employer', 'admin']), verifyLimit, async (req, res) => {
     const { format } = parseQuery(z.strictObject({ format: z.enum(['json', 'csv']).default('json') }), req);
-    const results = await bulkVerify(ctx, await csvFile(req, res));
+    const results = await bulkVerify(ctx, await readUpload(req, res, 'numbers', 1024 * 1024, 'A file of numbers'));
     if (format === 'csv') res.type('text/csv').attachment('driftproof-verification.csv').send(bulkResultsCsv(results));
     else res.json({ items: results });
   });

@@ -1,5 +1,4 @@
 import { Router, type Request } from 'express';
-import multer from 'multer';
 import { z } from 'zod';
 import {
   idSchema,
@@ -12,7 +11,7 @@ import {
 } from '../../shared/schemas';
 import { currentUser, guard } from '../auth/guard';
 import type { AppContext } from '../context';
-import { HttpError } from '../http/errors';
+import { readUpload } from '../http/upload';
 import { parseBody, parseParams, parseQuery } from '../http/validate';
 import { enrolOperator, importRoster, previewRoster, resendInvitation, setLevels } from '../services/enrolment';
 import { operatorProgress, operatorProgressCsv, organizationProfile, updateOrganization } from '../services/organizations';
@@ -27,26 +26,6 @@ const operatorsQuery = z.strictObject({
   pageSize: z.coerce.number().int().min(1).max(200).default(50),
   q: z.string().trim().max(100).optional(),
 });
-
-const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: ROSTER_MAX_BYTES, files: 1, fields: 5 } });
-
-/** Reads the roster file of a multipart upload, with clear messages for the limits. */
-function rosterFile(req: Request, res: Parameters<ReturnType<typeof upload.single>>[1]): Promise<Buffer> {
-  return new Promise((resolve, reject) => {
-    upload.single('roster')(req, res, (error: unknown) => {
-      if (error instanceof multer.MulterError) {
-        return reject(
-          error.code === 'LIMIT_FILE_SIZE'
-            ? new HttpError(413, 'roster_too_large', 'A roster file is at most 5 MB.')
-            : new HttpError(400, 'bad_upload', `The upload was refused: ${error.message}.`),
-        );
-      }
-      if (error) return reject(error);
-      if (!req.file) return reject(new HttpError(400, 'no_file', 'Attach the roster as a CSV file in the field "roster".'));
-      resolve(req.file.buffer);
-    });
-  });
-}
 
 export function organizationRoutes(ctx: AppContext) {
   const router = Router();
@@ -101,12 +80,12 @@ export function organizationRoutes(ctx: AppContext) {
   });
 
   router.post('/organizations/:orgId/roster/preview', ownEmployer, async (req, res) => {
-    const file = await rosterFile(req, res);
+    const file = await readUpload(req, res, 'roster', ROSTER_MAX_BYTES, 'A roster file');
     res.json(await previewRoster(ctx, orgId(req), file));
   });
 
   router.post('/organizations/:orgId/roster/import', ownEmployer, async (req, res) => {
-    const file = await rosterFile(req, res);
+    const file = await readUpload(req, res, 'roster', ROSTER_MAX_BYTES, 'A roster file');
     res.status(201).json(await importRoster(ctx, currentUser(req), orgId(req), file));
   });
 
