@@ -60,7 +60,7 @@ export function drawLabels(ctx: CanvasRenderingContext2D, trial: PublicTrial, pr
 
   // The robot's marks first: they matter most when space is short.
   const start = project(trial.start.x, trial.start.y);
-  label('Start', start.x, start.y + 18, { size: 11 });
+  label('Start', start.x, start.y + 26, { size: 11 });
   const dock = project(trial.dock.pose.x, trial.dock.pose.y);
   label('Dock', dock.x, dock.y - 20, { colour: '#0f4546' });
   for (const callPoint of trial.callPoints) {

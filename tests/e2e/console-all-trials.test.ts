@@ -53,7 +53,7 @@ describe.runIf(process.env.DRIVE_ALL_TRIALS === '1')('every shipped trial in the
           `${dockText.includes('In the dock') ? 'docked' : 'not docked'} (${miss.toFixed(2)} m from the dock pose by odometry, tolerance ${trial.dock.positionTolerance} m), time ${time.split(' ')[0]}`,
       );
       console.log(lines.at(-1));
-      expect(await page.getByTestId('summary-calls').innerText()).toMatch(/^[1-9]\d* of /);
+      expect(await page.getByTestId('summary-calls').innerText()).toMatch(/^\d+ of /);
     }
     console.log(`Every trial driven in the browser:\n  ${lines.join('\n  ')}`);
     expect(errors).toEqual([]);

@@ -47,6 +47,26 @@ describe('the drive console with a gamepad', () => {
 
     await signIn(page, demoEmail('operator2'));
     await startPractice(page, 'Long aisle run');
+
+    // Keyboard reach: Tab goes from the map's view buttons to the map itself, with a visible focus ring.
+    await page.getByRole('button', { name: 'Pan east' }).focus();
+    await page.keyboard.press('Tab');
+    const focused = await page.evaluate(() => {
+      const el = document.activeElement as HTMLElement;
+      const style = getComputedStyle(el);
+      return { label: el.getAttribute('aria-label'), outline: style.outlineStyle, width: parseFloat(style.outlineWidth) };
+    });
+    expect(focused.label).toMatch(/^Site map/);
+    expect(focused.outline).not.toBe('none');
+    expect(focused.width).toBeGreaterThanOrEqual(2);
+    await page.keyboard.press('Tab');
+    await page.keyboard.press('Tab');
+    await page.screenshot({ path: join(SCREENSHOTS, 'console-focus.png'), animations: 'disabled' });
+    // The map keys work from anywhere on the console: zoom in with "+".
+    const zoomBefore = Number(await page.getByTestId('site-map').getAttribute('data-zoom'));
+    await page.keyboard.press('Equal');
+    expect(Number(await page.getByTestId('site-map').getAttribute('data-zoom'))).toBeGreaterThan(zoomBefore);
+
     const status = page.getByTestId('gamepad-status');
     await status.getByText('connected').waitFor();
     expect(await status.innerText()).toContain('Test pad');

@@ -203,7 +203,7 @@ export interface RouteDrive {
  * point place the pin at the believed position and proceed (re-anchor when a marker is in view);
  * after a contact acknowledge it and back off. Stops on the dock and turns to its heading.
  */
-export async function followRoute(page: Page, route: readonly Point[], dockTheta: number, timeout = 150_000): Promise<RouteDrive> {
+export async function followRoute(page: Page, route: readonly Point[], dockTheta: number, timeout = 240_000): Promise<RouteDrive> {
   const keys = keySet(page);
   const end = Date.now() + timeout;
   const out: RouteDrive = { calls: [], contacts: 0 };
@@ -245,7 +245,7 @@ export async function followRoute(page: Page, route: readonly Point[], dockTheta
       const along = (goal.x - last.x) * (pose.x - goal.x) + (goal.y - last.y) * (pose.y - goal.y);
       if (onLast && (toGoal < 0.06 || along > 0)) break;
       const fine = toGoal < 2.5;
-      const target = pointAhead(route, segment, near.t, fine ? Math.max(0.3, Math.min(1, toGoal)) : 1.2);
+      const target = pointAhead(route, segment, near.t, fine ? Math.max(0.3, Math.min(1, toGoal)) : 0.8);
       const error = angleDiff(Math.atan2(target.y - pose.y, target.x - pose.x), pose.theta);
       const turn = error > 0.04 ? 'ArrowLeft' : error < -0.04 ? 'ArrowRight' : null;
       const wanted: string[] = [];
