@@ -12,6 +12,8 @@ export const JOBS = {
   resultMail: 'result-mail',
   receiptMail: 'receipt-mail',
   invitationMail: 'invitation-mail',
+  resetMail: 'reset-mail',
+  confirmationMail: 'confirmation-mail',
   credentialPdf: 'credential-pdf',
   credentialNotice: 'credential-notice',
   renewalReminders: 'renewal-reminders',

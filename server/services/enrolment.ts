@@ -135,11 +135,11 @@ export async function importRoster(ctx: AppContext, actor: Express.User, organiz
   return preview;
 }
 
-/** The job: e-mails an invitation with a fresh single-use link. */
+/** The job: e-mails an invitation with a fresh single-use link (an operator's names their organization). */
 export async function sendOperatorInvitation(ctx: AppContext, userId: number): Promise<void> {
   const user = await User.findByPk(userId, { include: [{ model: Organization, as: 'organization' }] });
   if (!user || user.passwordHash || !user.active) return;
-  await sendInvitation(ctx, user, undefined, user.organization?.name ?? 'Your employer');
+  await sendInvitation(ctx, user, undefined, user.role === 'operator' ? (user.organization?.name ?? 'Your employer') : undefined);
 }
 
 /** Sends a new invitation to an operator of the organization who has not joined yet. */

@@ -12,6 +12,7 @@ import type { PasswordTokenPurpose } from '../db/models/password-token';
 import { HttpError } from '../http/errors';
 import { invitationEmail, operatorInvitationEmail, passwordResetEmail } from './emails';
 import { endSessionsOf } from './sessions';
+import { JOBS } from '../jobs/queue';
 
 export const RESET_MINUTES = 30;
 export const INVITATION_HOURS = 72;
@@ -40,9 +41,19 @@ export async function spendToken(token: string, purposes: PasswordTokenPurpose[]
   return spent[0].userId;
 }
 
-/** Sends a reset link when an active account has this e-mail; says nothing either way. */
-export async function requestPasswordReset({ config, mailer }: AppContext, email: string): Promise<void> {
+/**
+ * Queues a reset link when an active account has this e-mail; says nothing either way. The e-mail
+ * goes out from the job queue, so the answer takes as long whether or not the account exists, and
+ * a mail server that is down only delays it.
+ */
+export async function requestPasswordReset(ctx: AppContext, email: string): Promise<void> {
   const user = await User.findOne({ where: { email, active: true } });
+  if (user) await ctx.jobs.send(JOBS.resetMail, { userId: user.id });
+}
+
+/** The job: issues a fresh reset link and e-mails it. */
+export async function sendResetMail({ config, mailer }: AppContext, userId: number): Promise<void> {
+  const user = await User.findOne({ where: { id: userId, active: true } });
   if (!user) return;
   const token = await issuePasswordToken(user.id, 'reset');
   await mailer.send(passwordResetEmail(user.email, user.name, passwordLink(config.appUrl, token, 'reset'), RESET_MINUTES));

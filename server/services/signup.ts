@@ -7,6 +7,7 @@ import { Organization, User } from '../db/models';
 import { HttpError } from '../http/errors';
 import { emailConfirmationEmail } from './emails';
 import { INVITATION_HOURS, issuePasswordToken, passwordLink, spendToken } from './password-tokens';
+import { JOBS } from '../jobs/queue';
 
 const taken = (field: 'email' | 'organizationName', message: string) => new HttpError(409, `${field === 'email' ? 'email' : 'organization'}_taken`, message, { [field]: message });
 
@@ -19,8 +20,7 @@ export async function signUpEmployer(ctx: AppContext, input: EmployerSignup): Pr
         { email: input.email, name: input.name, role: 'employer', organizationId: organization.id, passwordHash, lastSignInAt: null, emailConfirmedAt: null },
         { transaction },
       );
-      const token = await issuePasswordToken(created.id, 'email_confirmation', transaction);
-      await ctx.mailer.send(emailConfirmationEmail(created.email, created.name, organization.name, passwordLink(ctx.config.appUrl, token, 'email_confirmation'), INVITATION_HOURS));
+      await ctx.jobs.send(JOBS.confirmationMail, { userId: created.id }, { transaction });
       created.organization = organization;
       return created;
     });
@@ -42,8 +42,13 @@ export async function confirmEmail(ctx: AppContext, token: string): Promise<void
   });
 }
 
-/** Sends a new confirmation link to a signed-in employer who has not confirmed yet. */
+/** Queues a new confirmation link for a signed-in employer who has not confirmed yet. */
 export async function resendConfirmation(ctx: AppContext, userId: number): Promise<void> {
+  await ctx.jobs.send(JOBS.confirmationMail, { userId });
+}
+
+/** The job: issues a confirmation link and e-mails it. */
+export async function sendConfirmationMail(ctx: AppContext, userId: number): Promise<void> {
   const user = await User.findByPk(userId, { include: [{ model: Organization, as: 'organization' }] });
   if (!user || user.emailConfirmedAt) return;
   const token = await issuePasswordToken(user.id, 'email_confirmation');

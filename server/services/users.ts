@@ -5,7 +5,7 @@ import type { AppContext } from '../context';
 import { Organization, User } from '../db/models';
 import { containsPattern } from '../db/like';
 import { HttpError, notFound } from '../http/errors';
-import { sendInvitation } from './password-tokens';
+import { JOBS } from '../jobs/queue';
 import { endSessionsOf } from './sessions';
 
 const withOrganization = [{ model: Organization, as: 'organization' }];
@@ -38,7 +38,7 @@ async function assertOrganizationExists(organizationId: number | null | undefine
 const emailTaken = () =>
   new HttpError(409, 'email_taken', 'An account with this e-mail already exists.', { email: 'An account with this e-mail already exists.' });
 
-/** Creates an account without a password and e-mails an invitation; both or neither. */
+/** Creates an account without a password and queues its invitation e-mail; both or neither. */
 export async function createUser(ctx: AppContext, input: UserCreate): Promise<PublicUser> {
   await assertOrganizationExists(input.organizationId);
   try {
@@ -47,7 +47,7 @@ export async function createUser(ctx: AppContext, input: UserCreate): Promise<Pu
         { email: input.email, name: input.name, role: input.role, organizationId: input.organizationId ?? null, passwordHash: null, lastSignInAt: null },
         { transaction },
       );
-      await sendInvitation(ctx, created, transaction);
+      await ctx.jobs.send(JOBS.invitationMail, { userId: created.id }, { transaction });
       return created;
     });
     await user.reload({ include: withOrganization });

@@ -2,9 +2,11 @@ import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import request from 'supertest';
 import { hashPassword } from '../../server/auth/passwords';
 import { PasswordToken, User } from '../../server/db/models';
+import { startWorkers } from '../../server/jobs/workers';
 import { createTestApp, latestMailTo, resetRateLimits, signedInAgent, tokenFrom } from '../support/api';
 
 const t = createTestApp();
+beforeAll(() => startWorkers(t.ctx)); // e-mails go out from the job queue
 afterAll(() => t.close());
 beforeEach(() => resetRateLimits(t.ctx));
 
@@ -17,7 +19,7 @@ beforeAll(async () => {
   const started = new Date();
   await admin.post('/api/users').send({ email, name: 'Reset Tester', role: 'operator', organizationId: 1 }).expect(201);
   const invitation = await latestMailTo(email, started);
-  expect(invitation.subject).toBe('Your Driftproof account is ready');
+  expect(invitation.subject).toBe('Quillmoor Parcel Depot (demo) invites you to Driftproof');
   expect(invitation.textBody).toContain('&invited=1');
   await request(t.app).post('/api/auth/password-reset/confirm').send({ token: tokenFrom(invitation), password: firstPassword }).expect(204);
 });

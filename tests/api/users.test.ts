@@ -1,8 +1,10 @@
-import { afterAll, describe, expect, it } from 'vitest';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { PublicUser } from '../../shared/schemas';
+import { startWorkers } from '../../server/jobs/workers';
 import { createTestApp, demoEmail, latestMailTo, signedInAgent } from '../support/api';
 
 const t = createTestApp();
+beforeAll(() => startWorkers(t.ctx)); // e-mails go out from the job queue
 afterAll(() => t.close());
 
 describe('admin: users', () => {
