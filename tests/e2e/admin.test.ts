@@ -83,8 +83,12 @@ describe('administrator', () => {
     await page.getByRole('heading', { level: 1, name: 'Mail sink' }).waitFor();
 
     await page.getByLabel('Search').fill(newUser.email);
-    // Wait for the search to answer (one invitation) before picking the row, so the click does
-    // not land on a row that is being replaced.
+    // Invitations go out from the job queue, so the message may land a moment later: refresh until
+    // the search answers with it (one invitation) before picking the row.
+    for (let i = 0; i < 20 && !(await page.getByText('1–1 of 1').isVisible()); i++) {
+      await page.waitForTimeout(500);
+      await page.getByRole('button', { name: 'Refresh' }).click();
+    }
     await page.getByText('1–1 of 1').waitFor();
     const row = page.getByRole('row').filter({ hasText: newUser.email });
     await row.click();
