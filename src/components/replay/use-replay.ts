@@ -32,9 +32,12 @@ export function useReplay(report: Ref<AttemptReport | null>) {
   let frame: number | null = null;
   let lastTime: number | null = null;
 
+  // A new attempt starts a new replay; the same attempt loaded again (after a claim or a
+  // verdict) keeps the replay where it is.
   watch(
-    report,
-    (r) => {
+    () => (report.value ? `${report.value.attempt.id}:${report.value.trace.length}` : null),
+    () => {
+      const r = report.value;
       stop();
       if (!r) {
         track.value = null;
