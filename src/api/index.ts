@@ -13,7 +13,11 @@ import type {
   CallAnswer,
   CapturedMail,
   CapturedMailSummary,
+  EmployerSignup,
+  OperatorEnrol,
+  OperatorProgress,
   Organization,
+  OrganizationProfile,
   Page,
   PasswordResetConfirm,
   PasswordResetRequest,
@@ -24,6 +28,9 @@ import type {
   ReviewQueueItem,
   ReviewQueueQuery,
   Role,
+  RosterPreview,
+  SeatOrderView,
+  SeatPricing,
   SignIn,
   UserCreate,
   UserUpdate,
@@ -182,6 +189,75 @@ export async function request<T>(method: string, path: string, options: RequestO
   throw error;
 }
 
+/** How far an upload has got: bytes sent of the total (total 0 while the browser does not know). */
+export interface UploadProgress {
+  loaded: number;
+  total: number;
+}
+
+export interface UploadOptions {
+  onProgress?: (progress: UploadProgress) => void;
+  signal?: AbortSignal;
+}
+
+/**
+ * A multipart upload with progress (fetch cannot report upload progress; XMLHttpRequest can).
+ * Answers and failures are read exactly as `request` reads them.
+ */
+export function upload<T>(path: string, form: FormData, options: UploadOptions = {}): Promise<T> {
+  return new Promise<T>((resolve, reject) => {
+    const xhr = new XMLHttpRequest();
+    xhr.open('POST', path);
+    xhr.withCredentials = true;
+    xhr.setRequestHeader('Accept', 'application/json');
+    xhr.upload.onprogress = (event) => options.onProgress?.({ loaded: event.loaded, total: event.lengthComputable ? event.total : 0 });
+    xhr.onerror = () =>
+      reject(new ApiError(0, CLIENT_ERROR_CODES.network, 'Driftproof could not reach the server. Check your connection and try again.'));
+    xhr.onabort = () => reject(new DOMException('The upload was cancelled.', 'AbortError'));
+    xhr.onload = () => {
+      const text = xhr.responseText;
+      let data: unknown = undefined;
+      if (text) {
+        try {
+          data = JSON.parse(text);
+        } catch {
+          data = undefined;
+        }
+      }
+      if (xhr.status >= 200 && xhr.status < 300) {
+        if (text && data === undefined) {
+          reject(new ApiError(xhr.status, CLIENT_ERROR_CODES.badResponse, 'The server sent an answer Driftproof could not read. Try again in a moment.'));
+        } else {
+          resolve(data as T);
+        }
+        return;
+      }
+      if (xhr.status === 401 && unauthenticatedHandler) unauthenticatedHandler(path);
+      if (isApiErrorBody(data)) {
+        reject(new ApiError(xhr.status, data.error.code, data.error.message, data.error.fields ?? {}, data.error));
+      } else {
+        reject(
+          new ApiError(
+            xhr.status,
+            CLIENT_ERROR_CODES.http,
+            xhr.status >= 500
+              ? `The server had a problem (HTTP ${xhr.status}). Try again in a moment.`
+              : `The request failed (HTTP ${xhr.status}).`,
+          ),
+        );
+      }
+    };
+    if (options.signal) {
+      if (options.signal.aborted) {
+        reject(new DOMException('The upload was cancelled.', 'AbortError'));
+        return;
+      }
+      options.signal.addEventListener('abort', () => xhr.abort(), { once: true });
+    }
+    xhr.send(form);
+  });
+}
+
 // ---------------------------------------------------------------------------------------
 // Endpoints
 
@@ -231,8 +307,101 @@ export const usersApi = {
     request<{ user: PublicUser }>('PATCH', `/api/users/${encodeURIComponent(id)}`, { body }),
 };
 
+/** One row of an organization's seat ledger (as server/services/seats.ts `ledgerOf` returns it). */
+export interface SeatLedgerRow {
+  id: number;
+  /** Seats added (positive) or taken (negative). */
+  delta: number;
+  kind: 'purchase' | 'grant' | 'exam_start' | 'void_return' | 'refund';
+  orderId: string | null;
+  attemptId: string | null;
+  createdAt: string;
+}
+
+export interface SeatsOverview {
+  balance: number;
+  /** Newest first, at most 50. */
+  ledger: SeatLedgerRow[];
+  /** Newest first, at most 50. */
+  orders: SeatOrderView[];
+}
+
+/** A change to the organization profile; `null` clears a field. */
+export interface OrganizationChange {
+  name?: string;
+  billingEmail?: string | null;
+  address?: string | null;
+}
+
+export interface OperatorListParams {
+  page?: number;
+  pageSize?: number;
+  q?: string;
+}
+
+const orgPath = (orgId: number, tail = '') => `/api/organizations/${encodeURIComponent(orgId)}${tail}`;
+
+/** The multipart body of a roster upload: the file in the field "roster". */
+function rosterForm(file: Blob, fileName = 'roster.csv'): FormData {
+  const form = new FormData();
+  form.append('roster', file, fileName);
+  return form;
+}
+
 export const organizationsApi = {
   list: () => request<{ items: Organization[] }>('GET', '/api/organizations'),
+  get: (orgId: number, signal?: AbortSignal) =>
+    request<{ organization: OrganizationProfile }>('GET', orgPath(orgId), { signal }),
+  update: (orgId: number, body: OrganizationChange) =>
+    request<{ organization: OrganizationProfile }>('PATCH', orgPath(orgId), { body }),
+  /** Balance, ledger and orders in one answer. */
+  seats: (orgId: number, signal?: AbortSignal) => request<SeatsOverview>('GET', orgPath(orgId, '/seats'), { signal }),
+  /** A pending order and the address of the payment page to send the browser to. */
+  createOrder: (orgId: number, quantity: number) =>
+    request<{ order: SeatOrderView; checkoutUrl: string }>('POST', orgPath(orgId, '/orders'), { body: { quantity } }),
+  /** Admin only: seats without payment. Answers the new balance. */
+  grantSeats: (orgId: number, count: number) =>
+    request<{ balance: number }>('POST', orgPath(orgId, '/seat-grants'), { body: { count } }),
+  operators: (orgId: number, params: OperatorListParams = {}, signal?: AbortSignal) =>
+    request<Page<OperatorProgress>>('GET', orgPath(orgId, '/operators'), { query: { ...params }, signal }),
+  /** A plain link (the browser downloads the file with the session cookie). */
+  operatorsCsvUrl: (orgId: number) => orgPath(orgId, '/operators.csv'),
+  enrol: (orgId: number, body: OperatorEnrol) =>
+    request<{ id: number; invited: boolean }>('POST', orgPath(orgId, '/operators'), { body }),
+  setLevels: (orgId: number, userId: number, levelIds: string[]) =>
+    request<{ levelIds: string[] }>('PUT', orgPath(orgId, `/operators/${encodeURIComponent(userId)}/levels`), {
+      body: { levelIds },
+    }),
+  resendInvitation: (orgId: number, userId: number) =>
+    request<{ message: string }>('POST', orgPath(orgId, `/operators/${encodeURIComponent(userId)}/invitation`)),
+  /** Reads the roster and answers each row with its status and errors; writes nothing. */
+  previewRoster: (orgId: number, file: Blob, options: UploadOptions = {}, fileName?: string) =>
+    upload<RosterPreview>(orgPath(orgId, '/roster/preview'), rosterForm(file, fileName), options),
+  /** Imports the roster all or nothing (400 `roster_has_errors` carries the preview). */
+  importRoster: (orgId: number, file: Blob, options: UploadOptions = {}, fileName?: string) =>
+    upload<RosterPreview>(orgPath(orgId, '/roster/import'), rosterForm(file, fileName), options),
+};
+
+export const signupApi = {
+  /** Creates the organization and its first employer account (not signed in yet). */
+  signUp: (body: EmployerSignup) => request<{ user: PublicUser; message: string }>('POST', '/api/signup', { body }),
+  confirmEmail: (token: string) => request<void>('POST', '/api/signup/confirm', { body: { token } }),
+  resendConfirmation: () => request<{ message: string }>('POST', '/api/signup/resend-confirmation'),
+};
+
+/** A seat order as the admin lists it, with its organization. */
+export type AdminSeatOrder = SeatOrderView & { organizationId: number; organizationName: string };
+
+export const paymentsApi = {
+  /** Public: the seat price and its volume tiers, in the smallest currency unit. */
+  pricing: (signal?: AbortSignal) => request<{ pricing: SeatPricing }>('GET', '/api/pricing', { signal }),
+  setPricing: (body: SeatPricing) => request<{ pricing: SeatPricing }>('PUT', '/api/pricing', { body }),
+  /** Admin: the newest 200 orders, optionally of one organization. */
+  orders: (params: { organizationId?: number } = {}, signal?: AbortSignal) =>
+    request<{ items: AdminSeatOrder[] }>('GET', '/api/orders', { query: { ...params }, signal }),
+  /** Admin: refunds unused seats of a paid order (409 `seats_in_use` when they are not there). */
+  refund: (orderId: string, quantity: number) =>
+    request<{ order: SeatOrderView }>('POST', `/api/orders/${encodeURIComponent(orderId)}/refunds`, { body: { quantity } }),
 };
 
 export const mailApi = {
@@ -316,6 +485,8 @@ export const api = {
   health: healthApi,
   users: usersApi,
   organizations: organizationsApi,
+  signup: signupApi,
+  payments: paymentsApi,
   mail: mailApi,
   trials: trialsApi,
   attempts: attemptsApi,
