@@ -119,3 +119,27 @@ describe('the drive console with a gamepad', () => {
     await page.close();
   }, 120_000);
 });
+
+describe('the drive console on a narrow touch screen', () => {
+  it('stacks the map above the readout and drives with the on-screen buttons', async () => {
+    const { page, errors } = await openPage(browser);
+    await page.setViewportSize({ width: 412, height: 900 });
+    await signIn(page, demoEmail('operator1'));
+    await startPractice(page, 'Rack-end slalom');
+    const forward = page.getByRole('button', { name: 'Forward' });
+    await forward.scrollIntoViewIfNeeded();
+    const box = (await forward.boundingBox())!;
+    await page.mouse.move(box.x + box.width / 2, box.y + box.height / 2);
+    await page.mouse.down();
+    await until(async () => (await readPose(page)).y > 16.2, 15_000, 'the robot to move north');
+    await page.mouse.up();
+    await page.getByRole('button', { name: 'Emergency stop' }).click();
+    await page.getByTestId('drive-status').getByText('Emergency stop').waitFor();
+    await page.evaluate(() => window.scrollTo(0, 0));
+    await page.screenshot({ path: join(SCREENSHOTS, 'console-narrow.png'), fullPage: true, animations: 'disabled' });
+    // Nothing sticks out sideways.
+    expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(412);
+    expect(errors).toEqual([]);
+    await page.close();
+  }, 60_000);
+});
