@@ -31,7 +31,17 @@ export function navigationFor(role: Role): NavLink[] {
     return [
       home,
       { label: 'Users', to: '/admin/users', icon: 'pi pi-users' },
+      { label: 'Orders', to: '/admin/orders', icon: 'pi pi-receipt' },
+      { label: 'Pricing', to: '/admin/pricing', icon: 'pi pi-tag' },
       { label: 'Mail sink', to: '/admin/mail', icon: 'pi pi-envelope' },
+    ];
+  }
+  if (role === 'employer') {
+    return [
+      home,
+      { label: 'Enrol', to: '/employer/enrol', icon: 'pi pi-user-plus' },
+      { label: 'Seats', to: '/employer/seats', icon: 'pi pi-ticket' },
+      { label: 'Organization', to: '/employer/organization', icon: 'pi pi-building' },
     ];
   }
   if (role === 'operator') {

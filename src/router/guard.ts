@@ -14,6 +14,8 @@ declare module 'vue-router' {
     title?: string;
     /** The page uses the full width of the window (the drive console). */
     wide?: boolean;
+    /** The page brings its own layout (the public landing page): neither the shell nor the card. */
+    standalone?: boolean;
   }
 }
 
@@ -47,7 +49,8 @@ export function wrongRoleNotice(roles: readonly Role[]): string {
 /** Pure decision: may this user open this route, and if not, where do they go instead? */
 export function decideNavigation(to: Target, user: PublicUser | null): NavigationDecision {
   if (to.name === 'root') {
-    return { allow: false, redirect: user ? roleHome(user.role) : { name: 'sign-in' } };
+    // Signed in: `/` is the role's home. Signed out: the public landing page.
+    return user ? { allow: false, redirect: roleHome(user.role) } : ALLOW;
   }
   if (to.meta.public) {
     if (to.meta.guestOnly && user) {

@@ -1,13 +1,15 @@
-import { defineComponent } from 'vue';
 import type { RouteRecordRaw } from 'vue-router';
-
-/** Never shown: the guard always sends `/` on to a real page. */
-const Nothing = defineComponent({ name: 'RootRedirect', render: () => null });
 
 /** Every page of the app. Views are loaded lazily, one chunk per page. */
 export const routes: RouteRecordRaw[] = [
-  // `/` sends each person to their role's home (decided in the guard, once the session is known).
-  { path: '/', name: 'root', component: Nothing },
+  // `/` sends each signed-in person to their role's home (decided in the guard, once the session
+  // is known); a visitor who is not signed in sees the public landing page.
+  {
+    path: '/',
+    name: 'root',
+    component: () => import('@/views/public/LandingView.vue'),
+    meta: { standalone: true, title: 'Drive certification for odometry robots' },
+  },
 
   {
     path: '/sign-in',
@@ -27,6 +29,18 @@ export const routes: RouteRecordRaw[] = [
     component: () => import('@/views/public/ResetPasswordView.vue'),
     meta: { public: true, title: 'Choose a password' },
   },
+  {
+    path: '/signup',
+    name: 'employer-signup',
+    component: () => import('@/views/public/EmployerSignupView.vue'),
+    meta: { public: true, guestOnly: true, title: 'Employer sign-up' },
+  },
+  {
+    path: '/confirm-email',
+    name: 'confirm-email',
+    component: () => import('@/views/public/ConfirmEmailView.vue'),
+    meta: { public: true, title: 'Confirm your e-mail' },
+  },
 
   {
     path: '/admin',
@@ -41,6 +55,18 @@ export const routes: RouteRecordRaw[] = [
     meta: { roles: ['admin'], title: 'Users' },
   },
   {
+    path: '/admin/orders',
+    name: 'admin-orders',
+    component: () => import('@/views/admin/OrdersView.vue'),
+    meta: { roles: ['admin'], title: 'Seat orders' },
+  },
+  {
+    path: '/admin/pricing',
+    name: 'admin-pricing',
+    component: () => import('@/views/admin/PricingView.vue'),
+    meta: { roles: ['admin'], title: 'Seat pricing' },
+  },
+  {
     path: '/admin/mail',
     name: 'admin-mail',
     component: () => import('@/views/admin/MailView.vue'),
@@ -51,6 +77,36 @@ export const routes: RouteRecordRaw[] = [
     name: 'employer-home',
     component: () => import('@/views/home/EmployerHomeView.vue'),
     meta: { roles: ['employer'], title: 'Employer home' },
+  },
+  {
+    path: '/employer/enrol',
+    name: 'employer-enrol',
+    component: () => import('@/views/employer/EnrolView.vue'),
+    meta: { roles: ['employer'], title: 'Enrol operators' },
+  },
+  {
+    path: '/employer/seats',
+    name: 'employer-seats',
+    component: () => import('@/views/employer/SeatsView.vue'),
+    meta: { roles: ['employer'], title: 'Seats' },
+  },
+  {
+    path: '/employer/seats/buy',
+    name: 'employer-buy-seats',
+    component: () => import('@/views/employer/BuySeatsView.vue'),
+    meta: { roles: ['employer'], title: 'Buy seats' },
+  },
+  {
+    path: '/employer/orders/:orderId',
+    name: 'employer-order',
+    component: () => import('@/views/employer/OrderView.vue'),
+    meta: { roles: ['employer'], title: 'Seat order' },
+  },
+  {
+    path: '/employer/organization',
+    name: 'employer-organization',
+    component: () => import('@/views/employer/OrganizationView.vue'),
+    meta: { roles: ['employer'], title: 'Organization profile' },
   },
   {
     path: '/operator',
