@@ -30,8 +30,8 @@ export function demoOrganization({ password, bcryptCost }: DemoOptions): Migrati
         })) as [{ id: number }[], unknown];
         for (const account of DEMO_ACCOUNTS) {
           await sequelize.query(
-            `INSERT INTO users (email, name, role, organization_id, password_hash)
-             VALUES (:email, :name, :role, :organizationId, :hash)`,
+            `INSERT INTO users (email, name, role, organization_id, password_hash, email_confirmed_at)
+             VALUES (:email, :name, :role, :organizationId, :hash, now())`,
             {
               replacements: { ...account, organizationId: account.inOrganization ? org.id : null, hash },
               transaction,
