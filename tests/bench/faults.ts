@@ -37,6 +37,7 @@ let sink: MailSink = await startMailSink({ port: 0 });
 const smtpUrl = `smtp://127.0.0.1:${sink.port}`;
 
 /** A client that resends a request until the server answers it (as the console does). */
+// eslint-disable-next-line @typescript-eslint/no-explicit-any -- the answers of several routes, read loosely by a script
 async function persistent(url: string, init: RequestInit): Promise<{ status: number; body: any; tries: number }> {
   for (let tries = 1; ; tries++) {
     try {
