@@ -157,6 +157,12 @@ describe("the assessor's review", () => {
     await page.getByTestId('claim').click();
     await page.locator('[data-testid="review-workspace"][data-status="in_review"]').waitFor();
 
+    // A void needs its reason; nothing is sent without it.
+    await page.getByRole('radio', { name: /^Void/ }).check();
+    await page.getByTestId('sign-verdict').click();
+    await page.getByText('Write the reason in at least 10 characters.').waitFor();
+    expect(await page.getByLabel('Reason for voiding (required)').getAttribute('aria-invalid')).toBe('true');
+
     await page.getByRole('radio', { name: /^Amend/ }).check();
     // Nothing ticked yet: the form says what is missing, before anything is sent.
     await page.getByTestId('sign-verdict').click();
@@ -177,6 +183,7 @@ describe("the assessor's review", () => {
     expect(await page.getByTestId('amendments').innerText()).toContain(reason);
     const audit = await page.getByTestId('audit-log').innerText();
     expect(audit).toContain('Changed a call’s grade');
+    expect(audit).toContain('at South door of the wash bay');
     expect(audit).toContain(reason);
     expect(audit).toContain('Signed: amended');
     const southRow = page.getByTestId('calls-table').locator('tbody tr', { hasText: 'South door of the wash bay' });
