@@ -479,6 +479,130 @@ export const reviewsApi = {
     request<{ items: AuditEntry[] }>('GET', reviewPath(attemptId, '/audit'), { signal }),
 };
 
+// ---------------------------------------------------------------------------------------
+// Credentials and verification (the shapes of server/services/credentials.ts, which the client
+// cannot import).
+
+export type CredentialStatus = 'active' | 'expired' | 'revoked';
+
+/** One required trial of the level, passed in an exam drive. */
+export interface CredentialTrial {
+  trialId: string;
+  title: string;
+  attemptId: string;
+  passedAt: string;
+}
+
+/** A credential as GET /api/credentials lists it. */
+export interface CredentialView {
+  id: number;
+  number: string;
+  holderName: string;
+  userId: number;
+  organizationId: number | null;
+  organizationName: string | null;
+  levelId: string;
+  levelName: string;
+  trials: CredentialTrial[];
+  issuedAt: string;
+  expiresAt: string;
+  status: CredentialStatus;
+  revokedAt: string | null;
+  revokeReason: string | null;
+}
+
+/** The public answer for a number that exists (an unknown number answers 404 `not_found`). */
+export interface CredentialCheck {
+  found: true;
+  number: string;
+  holderName: string;
+  levelName: string;
+  organizationName: string | null;
+  issuedAt: string;
+  expiresAt: string;
+  status: CredentialStatus;
+  revokedAt: string | null;
+  /** The record matches its signature under Driftproof's key. */
+  signatureValid: boolean;
+  /** Only when the QR link's signature was sent: whether it is the one on record. */
+  printedSignatureMatches?: boolean;
+}
+
+/** One row of a bulk verification, in the order of the file (`line` counts the header as 1). */
+export interface BulkCheckRow {
+  line: number;
+  number: string;
+  name: string | null;
+  found: boolean;
+  status: CredentialStatus | null;
+  holderName: string | null;
+  levelName: string | null;
+  expiresAt: string | null;
+  /** Null when the row gave no name (or the number was not found). */
+  nameMatches: boolean | null;
+  signatureValid: boolean | null;
+}
+
+/**
+ * A multipart POST; answers the raw response when it is a success. Failures become ApiErrors
+ * exactly as in `request` (a 401 also tells the session handler).
+ */
+async function postForm(path: string, form: FormData, query?: Record<string, QueryValue>, accept = 'application/json'): Promise<Response> {
+  let response: Response;
+  try {
+    response = await fetch(path + buildQuery(query), { method: 'POST', body: form, credentials: 'same-origin', headers: { Accept: accept } });
+  } catch (cause) {
+    if (cause instanceof DOMException && cause.name === 'AbortError') throw cause;
+    throw new ApiError(0, CLIENT_ERROR_CODES.network, 'Driftproof could not reach the server. Check your connection and try again.');
+  }
+  if (response.ok) return response;
+  let data: unknown = undefined;
+  try {
+    data = JSON.parse(await response.text());
+  } catch {
+    data = undefined;
+  }
+  if (response.status === 401 && unauthenticatedHandler) unauthenticatedHandler(path);
+  if (isApiErrorBody(data)) throw new ApiError(response.status, data.error.code, data.error.message, data.error.fields ?? {}, data.error);
+  throw new ApiError(
+    response.status,
+    CLIENT_ERROR_CODES.http,
+    response.status >= 500 ? `The server had a problem (HTTP ${response.status}). Try again in a moment.` : `The request failed (HTTP ${response.status}).`,
+  );
+}
+
+/** The multipart body of a bulk verification: the CSV in the field "numbers". */
+function numbersForm(file: Blob, fileName: string): FormData {
+  const form = new FormData();
+  form.append('numbers', file, fileName);
+  return form;
+}
+
+const credentialPath = (id: number, tail = '') => `/api/credentials/${encodeURIComponent(id)}${tail}`;
+
+export const credentialsApi = {
+  /** Operator: their own; employer and HR: their organization's; assessor and admin: all. Newest first. */
+  list: (params: { expiringWithinDays?: number } = {}, signal?: AbortSignal) =>
+    request<{ items: CredentialView[] }>('GET', '/api/credentials', { query: { ...params }, signal }),
+  /** A plain link to the certificate PDF (holder, their employer, admin); the browser downloads it with the session cookie. */
+  pdfUrl: (id: number) => credentialPath(id, '/pdf'),
+  /** Admin and assessor; 409 `already_revoked`. */
+  revoke: (id: number, reason: string) =>
+    request<{ credential: CredentialView }>('POST', credentialPath(id, '/revoke'), { body: { reason } }),
+};
+
+export const verifyApi = {
+  /** Public. `signature` is the `s` of a QR link. 404 `not_found` for any number not on record; 429 `rate_limited`. */
+  check: (number: string, signature?: string, signal?: AbortSignal) =>
+    request<{ credential: CredentialCheck }>('GET', `/api/verify/${encodeURIComponent(number)}`, { query: { s: signature }, signal }),
+  /** HR, employer, admin: a CSV with a "number" column and an optional "name" column (≤ 1 MB, ≤ 1000 rows). */
+  bulk: async (file: Blob, fileName = 'numbers.csv') =>
+    (await postForm('/api/verify/bulk', numbersForm(file, fileName))).json() as Promise<{ items: BulkCheckRow[] }>,
+  /** The same check answered as the server's CSV file. */
+  bulkCsv: async (file: Blob, fileName = 'numbers.csv') =>
+    (await postForm('/api/verify/bulk', numbersForm(file, fileName), { format: 'csv' }, 'text/csv')).blob(),
+};
+
 /** All endpoints, grouped by resource. */
 export const api = {
   auth: authApi,
@@ -492,4 +616,6 @@ export const api = {
   attempts: attemptsApi,
   reports: reportsApi,
   reviews: reviewsApi,
+  credentials: credentialsApi,
+  verify: verifyApi,
 };
