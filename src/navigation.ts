@@ -33,6 +33,7 @@ export function navigationFor(role: Role): NavLink[] {
       { label: 'Users', to: '/admin/users', icon: 'pi pi-users' },
       { label: 'Orders', to: '/admin/orders', icon: 'pi pi-receipt' },
       { label: 'Pricing', to: '/admin/pricing', icon: 'pi pi-tag' },
+      { label: 'Credentials', to: '/credentials', icon: 'pi pi-id-card' },
       { label: 'Mail sink', to: '/admin/mail', icon: 'pi pi-envelope' },
     ];
   }
@@ -41,14 +42,23 @@ export function navigationFor(role: Role): NavLink[] {
       home,
       { label: 'Enrol', to: '/employer/enrol', icon: 'pi pi-user-plus' },
       { label: 'Seats', to: '/employer/seats', icon: 'pi pi-ticket' },
+      { label: 'Credentials', to: '/credentials', icon: 'pi pi-id-card' },
       { label: 'Organization', to: '/employer/organization', icon: 'pi pi-building' },
     ];
   }
   if (role === 'operator') {
-    return [home, { label: 'Trials', to: '/operator/trials', icon: 'pi pi-map' }];
+    return [home, { label: 'Trials', to: '/operator/trials', icon: 'pi pi-map' }, { label: 'Credentials', to: '/credentials', icon: 'pi pi-id-card' }];
   }
   if (role === 'assessor') {
-    return [home, { label: 'Review queue', to: '/assessor/reviews', icon: 'pi pi-inbox' }];
+    return [home, { label: 'Review queue', to: '/assessor/reviews', icon: 'pi pi-inbox' }, { label: 'Credentials', to: '/credentials', icon: 'pi pi-id-card' }];
+  }
+  if (role === 'hr') {
+    return [
+      home,
+      { label: 'Verify', to: '/verify', icon: 'pi pi-search' },
+      { label: 'Bulk check', to: '/bulk-verification', icon: 'pi pi-list-check' },
+      { label: 'Credentials', to: '/credentials', icon: 'pi pi-id-card' },
+    ];
   }
   return [home];
 }

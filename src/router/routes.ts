@@ -167,6 +167,26 @@ export const routes: RouteRecordRaw[] = [
   },
 
   {
+    // Public: the QR code on a certificate opens /verify/<number>?s=<signature>.
+    path: '/verify/:number?',
+    name: 'verify',
+    component: () => import('@/views/verify/VerifyView.vue'),
+    meta: { public: true, standalone: true, title: 'Verify a credential' },
+  },
+  {
+    path: '/credentials',
+    name: 'credentials',
+    component: () => import('@/views/credentials/CredentialsView.vue'),
+    meta: { roles: ['operator', 'employer', 'hr', 'assessor', 'admin'], title: 'Credentials' },
+  },
+  {
+    path: '/bulk-verification',
+    name: 'bulk-verification',
+    component: () => import('@/views/hr/BulkVerifyView.vue'),
+    meta: { roles: ['hr', 'employer', 'admin'], title: 'Bulk verification' },
+  },
+
+  {
     path: '/:pathMatch(.*)*',
     name: 'not-found',
     component: () => import('@/views/NotFoundView.vue'),

@@ -70,7 +70,7 @@ describe("the assessor's review", () => {
   it('finds the attempts in the queue, filters it, claims one, replays it and confirms the score', async () => {
     const { page, errors } = await openPage(browser);
     await signIn(page, demoEmail('assessor'));
-    expect(await navLinks(page)).toEqual(['Home', 'Review queue']);
+    expect(await navLinks(page)).toEqual(['Home', 'Review queue', 'Credentials']);
     expect(await page.getByTestId('open-reviews').innerText()).toMatch(/^\d+ exam attempts? open for review/);
     await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Review queue' }).click();
     await page.getByRole('heading', { level: 1, name: 'Review queue' }).waitFor();

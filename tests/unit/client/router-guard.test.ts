@@ -94,9 +94,10 @@ describe('decideNavigation (pure)', () => {
         expect(decideNavigation(resolve(link.to), user(role)), `${role} → ${link.to}`).toEqual({ allow: true });
       }
     }
-    expect(navigationFor('admin').map((l) => l.label)).toEqual(['Home', 'Users', 'Orders', 'Pricing', 'Mail sink']);
-    expect(navigationFor('employer').map((l) => l.label)).toEqual(['Home', 'Enrol', 'Seats', 'Organization']);
-    expect(navigationFor('operator').map((l) => l.label)).toEqual(['Home', 'Trials']);
+    expect(navigationFor('admin').map((l) => l.label)).toEqual(['Home', 'Users', 'Orders', 'Pricing', 'Credentials', 'Mail sink']);
+    expect(navigationFor('employer').map((l) => l.label)).toEqual(['Home', 'Enrol', 'Seats', 'Credentials', 'Organization']);
+    expect(navigationFor('operator').map((l) => l.label)).toEqual(['Home', 'Trials', 'Credentials']);
+    expect(navigationFor('hr').map((l) => l.label)).toEqual(['Home', 'Verify', 'Bulk check', 'Credentials']);
   });
 
   it('words the notice for several roles', () => {
