@@ -26,6 +26,11 @@ afterAll(async () => {
 describe('the attempt report', () => {
   it('the operator opens it from their drives and reads every part of it', async () => {
     const { page, errors } = await openPage(browser);
+    // Console errors other than answers the app expects (401 before sign-in).
+    const consoleErrors: string[] = [];
+    page.on('console', (m) => {
+      if (m.type() === 'error' && !m.text().startsWith('Failed to load resource')) consoleErrors.push(m.text());
+    });
     await signIn(page, demoEmail('operator2'));
     await page.getByTestId('recent-drives').getByRole('link', { name: 'Report of Long aisle run' }).first().click();
     await page.waitForURL((u) => u.pathname === `/attempts/${attemptId}/report`);
@@ -61,6 +66,15 @@ describe('the attempt report', () => {
 
     await page.evaluate(() => document.fonts.ready);
     await page.screenshot({ path: join(SCREENSHOTS, 'report-operator.png'), fullPage: true, animations: 'disabled' });
+
+    // On a phone-sized window the map and the chart still fit.
+    await page.setViewportSize({ width: 390, height: 844 });
+    await page.waitForTimeout(300);
+    const mapBox = (await page.getByTestId('drive-map').boundingBox())!;
+    expect(mapBox.width).toBeLessThanOrEqual(390);
+    expect(mapBox.height).toBeGreaterThan(150);
+    await page.screenshot({ path: join(SCREENSHOTS, 'report-narrow.png'), fullPage: true, animations: 'disabled' });
+    expect(consoleErrors).toEqual([]);
     expect(errors).toEqual([]);
     await closeSettled(page);
   });
