@@ -123,7 +123,9 @@ export function scoreAttempt(input: ScoreInput): AttemptScore {
   const dockHeadingError = Math.abs(normalizeAngle(input.truePose.theta - dock.pose.theta));
   const ratio = Math.max(dockPositionError / dock.positionTolerance, dockHeadingError / dock.headingTolerance);
   const timedOut = input.status === 'time_up' || input.time >= trial.timeLimit;
+  const called = new Set(calls.map((c) => c.callPointId));
   const outcome: OutcomeScore = {
+    skippedCallPoints: trial.callPoints.filter((c) => !called.has(c.id)).map((c) => c.label),
     contacts,
     contactObstacles,
     dockPositionError,
@@ -141,8 +143,11 @@ export function scoreAttempt(input: ScoreInput): AttemptScore {
 /** Totals the parts by the rubric's weights, decides pass or fail and the review flags. */
 export function combine(calls: CallScore[], outcome: OutcomeScore, rubric: Rubric, uncertainty: UncertaintyPoint[], submitted: boolean): AttemptScore {
   const estimates = calls.filter((c) => c.estimate).map((c) => c.estimate!.score);
+  // A skipped call point counts as a call with no points.
+  const skipped = outcome.skippedCallPoints.length;
+  const maxCallPoints = rubric.gradePoints.sound;
   const parts: ScoreParts = {
-    calls: calls.length ? calls.reduce((s, c) => s + c.points, 0) / calls.reduce((s, c) => s + c.maxPoints, 0) : 1,
+    calls: calls.length + skipped ? calls.reduce((s, c) => s + c.points, 0) / (calls.reduce((s, c) => s + c.maxPoints, 0) + skipped * maxCallPoints) : 1,
     estimates: estimates.length ? estimates.reduce((a, b) => a + b, 0) / estimates.length : null,
     docking: outcome.dockScore,
     time: outcome.timeScore,
@@ -159,6 +164,7 @@ export function combine(calls: CallScore[], outcome: OutcomeScore, rubric: Rubri
   const criticalFaults = [
     ...(outcome.contacts > 0 ? [`${outcome.contacts} contact${outcome.contacts > 1 ? 's' : ''} with ${outcome.contactObstacles.join(', ')}`] : []),
     ...calls.filter((c) => c.grade === 'unsafe').map((c) => `unsafe call at ${c.label}`),
+    ...outcome.skippedCallPoints.map((label) => `no call made at ${label}`),
   ];
   const flags = [
     ...(Math.abs(total - rubric.passMark) <= rubric.reviewMargins.total ? ['total near the pass mark'] : []),

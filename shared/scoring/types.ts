@@ -44,6 +44,8 @@ export interface CallScore {
 }
 
 export interface OutcomeScore {
+  /** Call points of the trial the drive went past without a call (labels): each a critical fault. */
+  skippedCallPoints: string[];
   contacts: number;
   contactObstacles: string[];
   /** Errors of the true final pose against the dock pose. */

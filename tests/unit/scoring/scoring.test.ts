@@ -153,3 +153,17 @@ describe('scoring whole drives', () => {
     expect(GRADES).toContain(amended.calls[0].grade);
   });
 });
+
+describe('skipped call points', () => {
+  it('a drive that goes past a call point without a call fails with a critical fault', () => {
+    const setup = driveSetup('long-aisle-run', 'skip');
+    const sim = new DriveSim(setup);
+    sim.applyBatch([{ v: 0.5, w: 0 }]);
+    const state = sim.finish('submitted');
+    const score = scoreAttempt({ ...setup, publicSeed: 'p', trace: sim.trace, calls: sim.calls, status: 'submitted', time: state.time, contacts: 0, truePose: sim.truePose() });
+    expect(score.outcome.skippedCallPoints).toEqual(['Gap between the pallet stacks']);
+    expect(score.criticalFaults).toContain('no call made at Gap between the pallet stacks');
+    expect(score.parts.calls).toBe(0);
+    expect(score.passed).toBe(false);
+  });
+});
