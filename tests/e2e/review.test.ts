@@ -89,8 +89,18 @@ describe("the assessor's review", () => {
     await age.pressSequentially('5');
     await age.press('Tab');
     await page.getByText('No attempts match these filters.').waitFor();
+    await until(async () => new URL(page.url()).searchParams.get('minAge') === '5', 'the age in the address');
     await page.getByRole('button', { name: 'Clear filters' }).click();
     await row(confirmId).waitFor();
+    expect(await age.inputValue()).toBe('');
+
+    // A filtered queue opened from a link shows those filters; the navigation link shows them all again.
+    await page.goto(url('/assessor/reviews?minAge=5&trial=wash-bay-crossing'));
+    await page.getByText('No attempts match these filters.').waitFor();
+    expect(await age.inputValue()).toBe('5 h');
+    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Review queue' }).click();
+    await row(confirmId).waitFor();
+    expect(await age.inputValue()).toBe('');
     await page.evaluate(() => document.fonts.ready);
     await page.screenshot({ path: join(SCREENSHOTS, 'review-queue.png'), fullPage: true, animations: 'disabled' });
 
