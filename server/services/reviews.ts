@@ -57,6 +57,7 @@ export async function reviewQueue(ctx: AppContext, query: ReviewQueueQuery): Pro
       passed: row.passed,
       flags: row.result.flags,
       status: row.reviewStatus,
+      assessorId: row.review?.assessorId ?? null,
       assessorName: row.review?.assessor?.name ?? null,
     })),
     total: count,

@@ -50,6 +50,7 @@ export interface ReviewQueueItem {
   passed: boolean;
   flags: string[];
   status: ReviewStatus;
+  assessorId: number | null;
   assessorName: string | null;
 }
 
