@@ -1,6 +1,6 @@
 import { Router } from 'express';
 import { z } from 'zod';
-import { idParamsSchema } from '../../shared/schemas';
+import { idParamsSchema, revokeCredentialSchema } from '../../shared/schemas';
 import { currentUser, guard } from '../auth/guard';
 import type { AppContext } from '../context';
 import { createLimiter } from '../http/rate-limit';
@@ -23,7 +23,7 @@ export function credentialRoutes(ctx: AppContext) {
   });
 
   router.post('/credentials/:id/revoke', guard(['admin', 'assessor']), async (req, res) => {
-    const { reason } = parseBody(z.strictObject({ reason: z.string({ error: 'Write the reason.' }).trim().min(10, 'Write the reason in at least 10 characters.').max(2000) }), req);
+    const { reason } = parseBody(revokeCredentialSchema, req);
     res.json({ credential: await revokeCredential(ctx, currentUser(req), parseParams(idParamsSchema, req).id, reason) });
   });
 

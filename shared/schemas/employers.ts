@@ -125,3 +125,8 @@ export interface OperatorProgress {
   lastSignInAt: string | null;
   levels: LevelProgress[];
 }
+
+/** Revoking a credential needs a written reason. */
+export const revokeCredentialSchema = z.strictObject({
+  reason: z.string({ error: 'Write the reason.' }).trim().min(1, 'Write the reason.').min(10, 'Write the reason in at least 10 characters.').max(2000, 'Keep the reason under 2000 characters.'),
+});

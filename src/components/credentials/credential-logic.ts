@@ -3,6 +3,7 @@
  * colour alone), what a verification answer means for the person holding the certificate, the
  * filters of the credentials list, and the summary of a bulk check.
  */
+import { revokeCredentialSchema } from '@shared/schemas';
 import { normalizeCredentialNumber } from '@shared/credentials';
 import type { BulkCheckRow, CredentialCheck, CredentialStatus, CredentialView } from '@/api';
 
@@ -181,11 +182,9 @@ export const REVOKE_REASON_MAX = 2000;
 
 /** The same rule as the server's revoke route: a reason of 10 to 2000 characters once trimmed. */
 export function revokeReasonProblem(reason: string): string | null {
-  const text = reason.trim();
-  if (text.length === 0) return 'Write the reason.';
-  if (text.length < REVOKE_REASON_MIN) return `Write the reason in at least ${REVOKE_REASON_MIN} characters.`;
-  if (text.length > REVOKE_REASON_MAX) return `Keep the reason under ${REVOKE_REASON_MAX} characters.`;
-  return null;
+  // The same rule the server applies (shared/schemas).
+  const parsed = revokeCredentialSchema.safeParse({ reason });
+  return parsed.success ? null : parsed.error.issues[0].message;
 }
 
 // ---------------------------------------------------------------------------------------
