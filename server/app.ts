@@ -93,8 +93,9 @@ export function createApp(ctx: AppContext) {
 
   if (existsSync(path.join(CLIENT_DIR, 'index.html'))) {
     app.use(express.static(CLIENT_DIR, { index: false, maxAge: '1h' }));
-    // The client routes in the browser: every other GET gets the app's page.
-    app.get('/{*splat}', (_req, res) => res.sendFile(path.join(CLIENT_DIR, 'index.html')));
+    // The client routes in the browser: every other GET gets the app's page. (dotfiles: a checkout
+    // under a folder whose name starts with a dot must still serve it.)
+    app.get('/{*splat}', (_req, res) => res.sendFile(path.join(CLIENT_DIR, 'index.html'), { dotfiles: 'allow' }));
   }
 
   app.use(errorHandler);

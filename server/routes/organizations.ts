@@ -15,11 +15,12 @@ import { readUpload } from '../http/upload';
 import { parseBody, parseParams, parseQuery } from '../http/validate';
 import { enrolOperator, importRoster, previewRoster, resendInvitation, setLevels } from '../services/enrolment';
 import { operatorProgress, operatorProgressCsv, organizationProfile, updateOrganization } from '../services/organizations';
-import { ordersOf, startCheckout } from '../services/payments';
+import { cancelCheckout, orderOf, ordersOf, startCheckout } from '../services/payments';
 import { grantSeats, ledgerOf, seatBalance } from '../services/seats';
 
 const orgParams = z.strictObject({ orgId: idSchema });
 const operatorParams = z.strictObject({ orgId: idSchema, userId: idSchema });
+const orderParams = z.strictObject({ orgId: idSchema, orderId: z.uuid({ error: 'Not an order id.' }) });
 const orgId = (req: Request) => parseParams(orgParams.loose(), req).orgId;
 const operatorsQuery = z.strictObject({
   page: z.coerce.number().int().min(1).default(1),
@@ -48,6 +49,14 @@ export function organizationRoutes(ctx: AppContext) {
   router.post('/organizations/:orgId/orders', guard(['employer'], { organizationId: (req) => orgId(req) }), async (req, res) => {
     const { quantity } = parseBody(seatOrderSchema, req);
     res.status(201).json(await startCheckout(ctx, currentUser(req), orgId(req), quantity));
+  });
+
+  router.get('/organizations/:orgId/orders/:orderId', ownEmployer, async (req, res) => {
+    res.json({ order: await orderOf(orgId(req), parseParams(orderParams, req).orderId) });
+  });
+
+  router.post('/organizations/:orgId/orders/:orderId/cancel', guard(['employer'], { organizationId: (req) => orgId(req) }), async (req, res) => {
+    res.json({ order: await cancelCheckout(ctx, orgId(req), parseParams(orderParams, req).orderId) });
   });
 
   router.post('/organizations/:orgId/seat-grants', guard(['admin']), async (req, res) => {

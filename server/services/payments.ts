@@ -128,6 +128,31 @@ export async function listOrders(organizationId?: number): Promise<(SeatOrderVie
   return rows.map((r) => ({ ...orderView(r), organizationId: r.organizationId, organizationName: names.get(r.organizationId) ?? '' }));
 }
 
+export async function orderOf(organizationId: number, orderId: string): Promise<SeatOrderView> {
+  const order = await SeatOrder.findOne({ where: { id: orderId, organizationId } });
+  if (!order) throw notFound('That order');
+  return orderView(order);
+}
+
+/** Gives up a pending checkout: the session is expired through the SDK, and its webhook settles the order. */
+export async function cancelCheckout(ctx: AppContext, organizationId: number, orderId: string): Promise<SeatOrderView> {
+  const order = await SeatOrder.findOne({ where: { id: orderId, organizationId } });
+  if (!order) throw notFound('That order');
+  if (order.status !== 'pending') return orderView(order);
+  if (order.checkoutSessionId) {
+    try {
+      await ctx.stripe.checkout.sessions.expire(order.checkoutSessionId);
+    } catch (error) {
+      // Already paid or expired at the payment service: its webhook decides.
+      console.error('expire checkout session:', (error as Error).message);
+      return orderView(order);
+    }
+  }
+  await SeatOrder.update({ status: 'expired' }, { where: { id: orderId, status: 'pending' } });
+  await order.reload();
+  return orderView(order);
+}
+
 export async function ordersOf(organizationId: number, limit = 50): Promise<SeatOrderView[]> {
   const rows = await SeatOrder.findAll({ where: { organizationId }, order: [['createdAt', 'DESC']], limit });
   return rows.map(orderView);

@@ -359,6 +359,12 @@ export const organizationsApi = {
   /** A pending order and the address of the payment page to send the browser to. */
   createOrder: (orgId: number, quantity: number) =>
     request<{ order: SeatOrderView; checkoutUrl: string }>('POST', orgPath(orgId, '/orders'), { body: { quantity } }),
+  /** One order of the organization. */
+  order: (orgId: number, orderId: string, signal?: AbortSignal) =>
+    request<{ order: SeatOrderView }>('GET', orgPath(orgId, `/orders/${encodeURIComponent(orderId)}`), { signal }),
+  /** Gives up a pending checkout (the payment session is expired; nothing is charged). */
+  cancelOrder: (orgId: number, orderId: string) =>
+    request<{ order: SeatOrderView }>('POST', orgPath(orgId, `/orders/${encodeURIComponent(orderId)}/cancel`)),
   /** Admin only: seats without payment. Answers the new balance. */
   grantSeats: (orgId: number, count: number) =>
     request<{ balance: number }>('POST', orgPath(orgId, '/seat-grants'), { body: { count } }),

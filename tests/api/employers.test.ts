@@ -119,6 +119,20 @@ describe('buying seats', () => {
     expect(await balance(agent, orgId)).toBe(3);
   });
 
+  it('an employer reads one order and can give up a pending checkout', async () => {
+    const { agent, orgId } = await newEmployer();
+    const res = await agent.post(`/api/organizations/${orgId}/orders`).send({ quantity: 2 }).expect(201);
+    const one = await agent.get(`/api/organizations/${orgId}/orders/${res.body.order.id}`).expect(200);
+    expect(one.body.order).toMatchObject({ id: res.body.order.id, status: 'pending', quantity: 2 });
+    const cancelled = await agent.post(`/api/organizations/${orgId}/orders/${res.body.order.id}/cancel`).expect(200);
+    expect(cancelled.body.order.status).toBe('expired');
+    const late = await pay(res.body.checkoutUrl, TEST_CARDS.succeeds);
+    expect(late.status).toBe(200); // the payment page says the session is over
+    expect(await balance(agent, orgId)).toBe(0);
+    const other = await newEmployer();
+    await other.agent.get(`/api/organizations/${orgId}/orders/${res.body.order.id}`).expect(403);
+  });
+
   it('a declined card or an expired session credits nothing', async () => {
     const { agent, orgId } = await newEmployer();
     const res = await agent.post(`/api/organizations/${orgId}/orders`).send({ quantity: 4 }).expect(201);

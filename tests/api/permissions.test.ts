@@ -66,6 +66,8 @@ const MATRIX: [string, string, Record<Caller, Outcome>][] = [
   ['PATCH /api/organizations/:orgId', '/api/organizations/1', ORG],
   ['GET /api/organizations/:orgId/seats', '/api/organizations/1/seats', ORG],
   ['POST /api/organizations/:orgId/orders', '/api/organizations/1/orders', only('employer')],
+  ['GET /api/organizations/:orgId/orders/:orderId', `/api/organizations/1/orders/${NO_ATTEMPT}`, ORG],
+  ['POST /api/organizations/:orgId/orders/:orderId/cancel', `/api/organizations/1/orders/${NO_ATTEMPT}/cancel`, only('employer')],
   ['POST /api/organizations/:orgId/seat-grants', '/api/organizations/1/seat-grants', only('admin')],
   ['GET /api/organizations/:orgId/operators', '/api/organizations/1/operators', ORG],
   ['GET /api/organizations/:orgId/operators.csv', '/api/organizations/1/operators.csv', ORG],

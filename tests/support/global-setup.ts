@@ -37,7 +37,9 @@ function freePort(): Promise<number> {
 
 export default async function setup(project: TestProject) {
   const config = loadConfig(testEnv());
-  const databaseUrl = await freshTestDatabase(config, `driftproof_test_${project.name}`);
+  // DRIFTPROOF_TEST_DB_SUFFIX keeps parallel runs in one checkout from recreating each other's database.
+  const suffix = (process.env.DRIFTPROOF_TEST_DB_SUFFIX ?? '').replace(/[^a-z0-9_]/g, '');
+  const databaseUrl = await freshTestDatabase(config, `driftproof_test_${project.name}${suffix ? `_${suffix}` : ''}`);
 
   const sequelize = createDatabase(databaseUrl, { poolMax: 3 });
   await migrate(sequelize);

@@ -87,9 +87,9 @@ export type OrderPhase = 'confirming' | 'pending' | 'cancelled' | 'paid' | 'expi
 
 export function orderPhase(status: SeatOrderView['status'], checkout: string | null | undefined): OrderPhase {
   if (status === 'paid' || status === 'partially_refunded' || status === 'refunded') return 'paid';
+  if (checkout === 'cancelled') return 'cancelled'; // left the payment page: the checkout is given up, pending or expired
   if (status === 'expired') return 'expired';
   if (checkout === 'success') return 'confirming';
-  if (checkout === 'cancelled') return 'cancelled';
   return 'pending';
 }
 
