@@ -11,6 +11,7 @@ import type { AppContext } from '../context';
 import { Credential, Organization, User } from '../db/models';
 import type { CredentialTrial } from '../db/models/credential';
 import { escapeHtml } from './mailer';
+import { csvCell } from '../http/csv';
 import { HttpError, notFound } from '../http/errors';
 import { JOBS } from '../jobs/queue';
 import { certificatePdf } from './certificates';
@@ -262,7 +263,6 @@ export async function bulkVerify(ctx: AppContext, file: Buffer): Promise<BulkRes
   return results;
 }
 
-const csvCell = (value: string) => (/[",\n\r]/.test(value) || /^[=+\-@]/.test(value) ? `"${(/^[=+\-@]/.test(value) ? "'" : '') + value.replace(/"/g, '""')}"` : value);
 
 export function bulkResultsCsv(results: BulkResult[]): string {
   const header = 'line,number,name,found,status,holder_name,level,expires_at,name_matches,signature_valid';

@@ -4,6 +4,7 @@ import type { LevelProgress, OperatorProgress, OrganizationProfile, Page } from 
 import type { AppContext } from '../context';
 import { containsPattern } from '../db/like';
 import { LevelAssignment, Organization, User } from '../db/models';
+import { csvCell } from '../http/csv';
 import { notFound } from '../http/errors';
 import { seatBalance } from './seats';
 
@@ -62,7 +63,6 @@ export async function operatorProgress(ctx: AppContext, organizationId: number, 
   return { items, total: count, page, pageSize };
 }
 
-const csvCell = (value: string) => (/[",\n\r]/.test(value) || /^[=+\-@]/.test(value) ? `"${(/^[=+\-@]/.test(value) ? "'" : '') + value.replace(/"/g, '""')}"` : value);
 
 /** The operators and their progress as CSV (cells that a spreadsheet would run as formulas are neutralised). */
 export async function operatorProgressCsv(ctx: AppContext, organizationId: number): Promise<string> {
