@@ -55,6 +55,7 @@ export function summary(attempt: Attempt, ctx: AppContext, userName: string): At
     userId: attempt.userId,
     userName,
     organizationId: attempt.organizationId,
+    fleetProfile: null,
     createdAt: attempt.createdAt.toISOString(),
     submittedAt: attempt.submittedAt?.toISOString() ?? null,
   };
@@ -239,6 +240,7 @@ export async function viewAttempt(ctx: AppContext, actor: Actor, attemptId: stri
   const userName = (attempt as Attempt & { user?: User }).user?.name ?? '';
   const view: AttemptView = {
     attempt: summary(attempt, ctx, userName),
+    trial: publicTrial(ctx.content, attempt.trialId),
     publicSeed: attempt.publicSeed,
     state: sim.state(),
     odometryTrail: sim.trace.map((s) => s.odometry),

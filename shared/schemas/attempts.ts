@@ -9,10 +9,17 @@ const finite = (what: string) => z.number({ error: `${what} must be a number.` }
 
 export const ATTEMPT_MODES = ['practice', 'exam'] as const;
 
-export const attemptCreateSchema = z.strictObject({
-  trialId: z.string().min(1).max(64),
-  mode: z.enum(ATTEMPT_MODES, { error: 'Choose practice or exam.' }),
-});
+export const EXAM_FLEET_PROFILE_MESSAGE = 'Exams always run on the standard drift profiles.';
+
+export const attemptCreateSchema = z
+  .strictObject({
+    trialId: z.string().min(1).max(64),
+    mode: z.enum(ATTEMPT_MODES, { error: 'Choose practice or exam.' }),
+    /** Practice on a fleet profile of the operator's organization (practice only). */
+    fleetProfileId: z.uuid({ error: 'Not a fleet profile id.' }).optional(),
+  })
+  .refine((v) => !(v.mode === 'exam' && v.fleetProfileId), { message: EXAM_FLEET_PROFILE_MESSAGE, path: ['fleetProfileId'] });
+export type AttemptCreate = z.infer<typeof attemptCreateSchema>;
 
 export const attemptParamsSchema = z.strictObject({ id: z.uuid({ error: 'Not an attempt id.' }) });
 
@@ -58,6 +65,8 @@ export interface AttemptSummary {
   userId: number;
   userName: string;
   organizationId: number | null;
+  /** The fleet profile a practice drive runs on; null for the standard drift profile. */
+  fleetProfile: { id: string; name: string } | null;
   createdAt: string;
   submittedAt: string | null;
 }
@@ -73,6 +82,8 @@ export interface AttemptStart {
 /** An attempt as GET /api/attempts/:id returns it. The truth fields appear only once it is over. */
 export interface AttemptView {
   attempt: AttemptSummary;
+  /** The trial as this attempt drives it (a fleet profile's robot and alphas when it has one). */
+  trial: PublicTrial;
   publicSeed: string;
   state: DriveState;
   /** The odometry pose after every simulated step, passes included. */

@@ -1,3 +1,5 @@
+import type { RowProblem } from '../calibration';
+
 /** Every API error has this body, whatever the status. */
 export interface ApiErrorBody {
   error: {
@@ -7,5 +9,7 @@ export interface ApiErrorBody {
     fields?: Record<string, string>;
     /** For seq conflicts of a drive: the seq the next batch must start at. */
     expectedSeq?: number;
+    /** For `calibration_rows`: the rows of the upload to fix (at most FLEET_MAX_PROBLEMS). */
+    details?: { problems: RowProblem[] };
   };
 }

@@ -9,3 +9,4 @@ export * from './content';
 export * from './attempts';
 export * from './reviews';
 export * from './employers';
+export * from './fleet';
