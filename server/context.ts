@@ -1,12 +1,12 @@
-import connectPgSimple from 'connect-pg-simple';
-import session from 'express-session';
+import type session from 'express-session';
 import Stripe from 'stripe';
 import type { Sequelize } from 'sequelize';
-import type { DriveSim } from '../shared/sim';
 import { randomBytes } from 'node:crypto';
 import type { Config } from './config';
 import { loadContent, type Content } from './content/load';
 import { createDatabase } from './db';
+import { createSessionStore } from './http/session-store';
+import { createDriveCache, type DriveCache } from './services/drive-cache';
 import { createJobQueue, type JobQueue } from './jobs/queue';
 import { createMailer, type Mailer } from './services/mailer';
 
@@ -41,49 +41,15 @@ export function createStripeClient(secretKey: string, apiUrl?: string): Stripe {
   });
 }
 
-export interface DriveCache {
-  get(attemptId: string): { logLength: number; sim: DriveSim } | undefined;
-  set(attemptId: string, entry: { logLength: number; sim: DriveSim }): void;
-  delete(attemptId: string): void;
-}
-
-/** A small least-recently-used map: a web process keeps the drives it served last. */
-export function createDriveCache(limit = 500): DriveCache {
-  const map = new Map<string, { logLength: number; sim: DriveSim }>();
-  return {
-    get(id) {
-      const entry = map.get(id);
-      if (entry) {
-        map.delete(id);
-        map.set(id, entry);
-      }
-      return entry;
-    },
-    set(id, entry) {
-      map.delete(id);
-      map.set(id, entry);
-      if (map.size > limit) map.delete(map.keys().next().value!);
-    },
-    delete: (id) => void map.delete(id),
-  };
-}
-
 export interface ContextOptions {
   content?: Content;
   newSeed?: () => string;
 }
 
-const PgSessionStore = connectPgSimple(session);
-
 /** Connects to the database and the SMTP server named by the config and the resolved URLs. */
 export function createContext(config: Config, urls: { databaseUrl: string; smtpUrl: string; stripeApiUrl?: string }, options: ContextOptions = {}): AppContext {
   const sequelize = createDatabase(urls.databaseUrl);
-  const sessionStore = new PgSessionStore({
-    conString: urls.databaseUrl, // the store owns this pool and ends it on close()
-    tableName: 'session',
-    createTableIfMissing: false,
-    pruneSessionInterval: config.env === 'test' ? false : 15 * 60,
-  });
+  const sessionStore = createSessionStore(urls.databaseUrl, { prune: config.env !== 'test' });
   const mailer = createMailer({ smtpUrl: urls.smtpUrl, from: config.mailFrom });
   return {
     config,

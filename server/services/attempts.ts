@@ -83,7 +83,7 @@ export async function startAttempt(ctx: AppContext, actor: Actor, input: { trial
     return created;
   });
   const sim = newDrive(ctx, attempt);
-  ctx.drives.set(attempt.id, { logLength: 0, sim });
+  ctx.drives.set(attempt.id, { logLength: 0, userId: attempt.userId, sim });
   return { attempt: summary(attempt, ctx, actor.name), publicSeed: attempt.publicSeed, trial, state: sim.state() };
 }
 
@@ -117,7 +117,7 @@ export async function driveOf(ctx: AppContext, attempt: Attempt, transaction?: T
   const sim = newDrive(ctx, attempt);
   const entries = await AttemptLogEntry.findAll({ where: { attemptId: attempt.id }, order: [['entryNo', 'ASC']], transaction });
   for (const entry of entries) replay(sim, entry);
-  ctx.drives.set(attempt.id, { logLength: entries.length, sim });
+  ctx.drives.set(attempt.id, { logLength: entries.length, userId: attempt.userId, sim });
   return sim;
 }
 
@@ -159,7 +159,7 @@ async function changeDrive<T extends object>(
         },
         { transaction },
       );
-      ctx.drives.set(attemptId, { logLength: attempt.logLength, sim });
+      ctx.drives.set(attemptId, { logLength: attempt.logLength, userId: attempt.userId, sim });
       return outcome;
     });
   } catch (error) {
@@ -171,8 +171,50 @@ async function changeDrive<T extends object>(
 /** Compares a request with one stored as jsonb (which reorders object keys). */
 const sameJson = (a: unknown, b: unknown) => isDeepStrictEqual(a, b);
 
-/** Applies a numbered batch of commands. A resent batch gets its stored answer; a gap or a different resend gets 409. */
+/**
+ * Applies a numbered batch of commands. A resent batch gets its stored answer; a gap or a different
+ * resend gets 409. The usual batch (the next one, on a drive this process holds) takes the short
+ * way of {@link appendToHeldDrive}; everything else the general one.
+ */
 export function applySteps(ctx: AppContext, actor: Actor, attemptId: string, batch: StepBatch): Promise<BatchResult> {
+  return ctx.drives.exclusive(attemptId, async () => (await appendToHeldDrive(ctx, actor, attemptId, batch)) ?? applyStepsLocked(ctx, actor, attemptId, batch));
+}
+
+/**
+ * The next batch of a drive this process holds, stored in one statement: the attempt's row is
+ * advanced only if its log is still as long as the held drive's (so no other process moved the
+ * drive meanwhile), and the log entry is written with it. Returns null when the general way must
+ * decide: no held drive, a resend or a gap, a drive that is not driving, or a log that moved on.
+ */
+async function appendToHeldDrive(ctx: AppContext, actor: Actor, attemptId: string, batch: StepBatch): Promise<BatchResult | null> {
+  const held = ctx.drives.get(attemptId);
+  const now = held?.sim.state();
+  if (!held || !now || held.userId !== actor.id || now.status !== 'driving' || now.seq !== batch.fromSeq) return null;
+  try {
+    const result = held.sim.applyBatch(batch.commands);
+    const [rows] = await ctx.sequelize.query(
+      `WITH advanced AS (
+         UPDATE attempts SET log_length = log_length + 1, next_seq = $1, status = $2, updated_at = now()
+          WHERE id = $3 AND user_id = $4 AND log_length = $5
+          RETURNING id)
+       INSERT INTO attempt_log (attempt_id, entry_no, kind, from_seq, request, response)
+       SELECT id, $5, 'steps', $6, $7::jsonb, $8::jsonb FROM advanced
+       RETURNING entry_no`,
+      { bind: [result.state.seq, result.state.status, attemptId, actor.id, held.logLength, batch.fromSeq, JSON.stringify(batch), JSON.stringify(result)] },
+    );
+    if (rows.length === 0) {
+      ctx.drives.delete(attemptId); // another process moved the drive: rebuild it from the log
+      return null;
+    }
+    ctx.drives.set(attemptId, { ...held, logLength: held.logLength + 1 });
+    return result;
+  } catch (error) {
+    ctx.drives.delete(attemptId);
+    throw asHttp(error);
+  }
+}
+
+function applyStepsLocked(ctx: AppContext, actor: Actor, attemptId: string, batch: StepBatch): Promise<BatchResult> {
   return changeDrive(
     ctx,
     actor,
@@ -197,7 +239,7 @@ const seqConflict = (expectedSeq: number, message: string) =>
 
 /** Answers the call point the drive is waiting at. Resending the same answer gets the stored one. */
 export function answerCall(ctx: AppContext, actor: Actor, attemptId: string, answer: CallAnswer): Promise<BatchResult> {
-  return changeDrive(ctx, actor, attemptId, 'call', answer, async (sim, _attempt, transaction) => {
+  return ctx.drives.exclusive(attemptId, () => changeDrive(ctx, actor, attemptId, 'call', answer, async (sim, _attempt, transaction) => {
     const earlier = await AttemptLogEntry.findAll({ where: { attemptId, kind: 'call' }, transaction });
     const same = earlier.find((e) => (e.request as CallAnswer).callPointId === answer.callPointId);
     if (same) {
@@ -205,7 +247,7 @@ export function answerCall(ctx: AppContext, actor: Actor, attemptId: string, ans
       throw new HttpError(409, 'call_already_made', 'A different call was already made at this call point.');
     }
     return sim.answerCall(answer.callPointId, answer.call, (answer.estimate as EstimatePin | undefined) ?? null);
-  }) as Promise<BatchResult>;
+  })) as Promise<BatchResult>;
 }
 
 /**
@@ -213,7 +255,7 @@ export function answerCall(ctx: AppContext, actor: Actor, attemptId: string, ans
  * abandoned. Repeating it is harmless.
  */
 export async function finishAttempt(ctx: AppContext, actor: Actor, attemptId: string, how: 'submit' | 'abandon'): Promise<AttemptView> {
-  await changeDrive(ctx, actor, attemptId, how, {}, async (sim, attempt, transaction) => {
+  await ctx.drives.exclusive(attemptId, () => changeDrive(ctx, actor, attemptId, how, {}, async (sim, attempt, transaction) => {
     if (attempt.status === 'submitted' || attempt.status === 'abandoned') {
       if ((how === 'submit') === (attempt.status === 'submitted')) return { stored: null };
       throw new HttpError(409, 'attempt_over', `This attempt was already ${attempt.status}.`);
@@ -221,7 +263,7 @@ export async function finishAttempt(ctx: AppContext, actor: Actor, attemptId: st
     const state = sim.finish(how === 'submit' ? 'submitted' : 'abandoned');
     if (how === 'submit') await ctx.jobs.send(JOBS.scoreAttempt, { attemptId }, { transaction, singletonKey: attemptId });
     return { state };
-  });
+  }));
   return viewAttempt(ctx, actor, attemptId);
 }
 
@@ -236,7 +278,7 @@ export function canSee(actor: Actor, attempt: Attempt): boolean {
 export async function viewAttempt(ctx: AppContext, actor: Actor, attemptId: string): Promise<AttemptView> {
   const attempt = await Attempt.findByPk(attemptId, { include: [{ model: User, as: 'user' }] });
   if (!attempt || !canSee(actor, attempt)) throw notFound('That attempt');
-  const sim = await driveOf(ctx, attempt);
+  const sim = await ctx.drives.exclusive(attemptId, () => driveOf(ctx, attempt));
   const userName = (attempt as Attempt & { user?: User }).user?.name ?? '';
   const view: AttemptView = {
     attempt: summary(attempt, ctx, userName),

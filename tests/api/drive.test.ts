@@ -3,7 +3,7 @@ import request from 'supertest';
 import type { AttemptView, Call, PublicTrial } from '../../shared/schemas';
 import { DriveSim } from '../../shared/sim';
 import { createApp } from '../../server/app';
-import { createDriveCache } from '../../server/context';
+import { createDriveCache } from '../../server/services/drive-cache';
 import { Attempt } from '../../server/db/models';
 import { createTestApp, signedInAgent, type TestApp } from '../support/api';
 import { driveSetup, shippedContent } from '../support/content';
@@ -260,6 +260,52 @@ describe('replay', () => {
       expect(done.result!.trace).toEqual(sim.trace);
       expect(done.result!.truePose).toEqual(sim.truePose());
     }
+  });
+
+  it('two web processes taking turns on one drive give exactly the drive of one', async () => {
+    const agentA = await signedInAgent(t.app, 'operator1');
+    const other = createApp({ ...t.ctx, drives: createDriveCache() });
+    const agentB = request.agent(other);
+    agentB.jar.setCookies(agentA.jar.getCookies({ domain: '127.0.0.1', path: '/', secure: false, script: false }).map((c) => c.toString()));
+    const start = await startDrive(agentA, 'long-aisle-run');
+    // A balancer without sticky sessions: the batches land on either process, in runs of 1–3.
+    const turns = 'AABABBBAABABAAABBA'.split('');
+    let seq = 0;
+    for (const [i, who] of turns.entries()) {
+      const agent = who === 'A' ? agentA : agentB;
+      const res = await agent.post(`/api/attempts/${start.attempt.id}/steps`).send({ fromSeq: seq, commands: [0, 1, 2].map(() => ({ v: 0.6, w: i % 4 < 2 ? 0.05 : -0.05 })) });
+      expect(res.status, JSON.stringify(res.body)).toBe(200);
+      seq = res.body.seq;
+    }
+    // A batch answered by B whose answer was lost, resent to A (which still holds the drive as it was before).
+    await agentA.post(`/api/attempts/${start.attempt.id}/steps`).send({ fromSeq: seq, commands: [{ v: 0.5, w: 0 }] }).expect(200);
+    const lost = { fromSeq: seq + 1, commands: [{ v: 0.5, w: 0.1 }, { v: 0.5, w: 0.1 }] };
+    const answeredByB = await agentB.post(`/api/attempts/${start.attempt.id}/steps`).send(lost).expect(200);
+    const resentToA = await agentA.post(`/api/attempts/${start.attempt.id}/steps`).send(lost).expect(200);
+    expect(resentToA.body).toEqual(answeredByB.body);
+    seq = answeredByB.body.seq;
+    const view = (await agentB.get(`/api/attempts/${start.attempt.id}`).expect(200)).body as AttemptView;
+    expect(view.state.seq).toBe(seq);
+    const attempt = await Attempt.findByPk(start.attempt.id);
+    expect(attempt!.logLength).toBe(turns.length + 2);
+    expect(attempt!.nextSeq).toBe(seq);
+    const done = (await agentA.post(`/api/attempts/${start.attempt.id}/abandon`).expect(200)).body as AttemptView;
+    const sim = new DriveSim(driveSetup('long-aisle-run', attempt!.secretSeed));
+    for (const entry of done.result!.log) if (entry.kind === 'steps') sim.applyBatch((entry.request as { commands: { v: number; w: number }[] }).commands);
+    expect(done.result!.trace).toEqual(sim.trace);
+  });
+
+  it('the same batch sent five times at once is applied once, and all five get its answer', async () => {
+    const agent = await signedInAgent(t.app, 'operator1');
+    const start = await startDrive(agent, 'long-aisle-run');
+    await agent.post(`/api/attempts/${start.attempt.id}/steps`).send({ fromSeq: 0, commands: [{ v: 0.5, w: 0 }] }).expect(200);
+    const batch = { fromSeq: 1, commands: [{ v: 0.6, w: 0.1 }, { v: 0.7, w: 0.1 }] };
+    const answers = await Promise.all([0, 1, 2, 3, 4].map(() => agent.post(`/api/attempts/${start.attempt.id}/steps`).send(batch)));
+    expect(answers.map((a) => a.status)).toEqual([200, 200, 200, 200, 200]);
+    for (const a of answers) expect(a.body).toEqual(answers[0].body);
+    const attempt = await Attempt.findByPk(start.attempt.id);
+    expect(attempt!.logLength).toBe(2);
+    expect(attempt!.nextSeq).toBe(3);
   });
 
   it('the same seeds and commands give the same true path twice', async () => {
