@@ -42,6 +42,7 @@ export function navigationFor(role: Role): NavLink[] {
       home,
       { label: 'Enrol', to: '/employer/enrol', icon: 'pi pi-user-plus' },
       { label: 'Seats', to: '/employer/seats', icon: 'pi pi-ticket' },
+      { label: 'Fleet calibration', to: '/employer/fleet', icon: 'pi pi-sliders-h' },
       { label: 'Credentials', to: '/credentials', icon: 'pi pi-id-card' },
       { label: 'Organization', to: '/employer/organization', icon: 'pi pi-building' },
     ];

@@ -14,6 +14,12 @@ import type {
   CapturedMail,
   CapturedMailSummary,
   EmployerSignup,
+  FleetFileKind,
+  FleetPracticeTrial,
+  FleetProfileDetail,
+  FleetProfileSummary,
+  AlphaFitView,
+  UmbmarkView,
   OperatorEnrol,
   OperatorProgress,
   Organization,
@@ -448,8 +454,9 @@ export interface AttemptListParams {
 const attemptPath = (id: string, tail = '') => `/api/attempts/${encodeURIComponent(id)}${tail}`;
 
 export const attemptsApi = {
-  start: (trialId: string, mode: AttemptSummary['mode']) =>
-    request<AttemptStart>('POST', '/api/attempts', { body: { trialId, mode } }),
+  /** A practice drive may run on a fleet profile of the operator's organization (`fleetProfileId`). */
+  start: (trialId: string, mode: AttemptSummary['mode'], fleetProfileId?: string) =>
+    request<AttemptStart>('POST', '/api/attempts', { body: fleetProfileId ? { trialId, mode, fleetProfileId } : { trialId, mode } }),
   list: (params: AttemptListParams = {}, signal?: AbortSignal) =>
     request<Page<AttemptSummary>>('GET', '/api/attempts', { query: { ...params }, signal }),
   get: (id: string, signal?: AbortSignal) => request<AttemptView>('GET', attemptPath(id), { signal }),
@@ -483,6 +490,60 @@ export const reviewsApi = {
     request<{ review: ReviewInfo }>('POST', reviewPath(attemptId, '/verdict'), { body }),
   audit: (attemptId: string, signal?: AbortSignal) =>
     request<{ items: AuditEntry[] }>('GET', reviewPath(attemptId, '/audit'), { signal }),
+};
+
+// ---------------------------------------------------------------------------------------
+// Fleet calibration (shapes in shared/schemas/fleet.ts)
+
+/**
+ * The robot fields of a calibration, as multipart text: a content robot's id and, optionally,
+ * the employer's own wheel radius and wheelbase (metres) and encoder resolution; '' keeps the
+ * content robot's value.
+ */
+export interface FleetRobotFormFields {
+  robotId: string;
+  wheelRadius: string;
+  wheelbase: string;
+  ticksPerRevolution: string;
+}
+
+function fleetForm(fields: Record<string, string>, files: { runs?: File | null; poses?: File | null }): FormData {
+  const form = new FormData();
+  for (const [key, value] of Object.entries(fields)) form.append(key, value);
+  if (files.runs) form.append('runs', files.runs, files.runs.name);
+  if (files.poses) form.append('poses', files.poses, files.poses.name);
+  return form;
+}
+
+const fleetProfilePath = (orgId: number, profileId: string, tail = '') =>
+  orgPath(orgId, `/fleet-profiles/${encodeURIComponent(profileId)}${tail}`);
+
+export const fleetApi = {
+  /** Reads UMBmark runs and answers the report; stores nothing. 400 `calibration_rows` lists the rows to fix. */
+  previewUmbmark: (orgId: number, robot: FleetRobotFormFields, runs: File, options: UploadOptions = {}) =>
+    upload<{ umbmark: UmbmarkView }>(orgPath(orgId, '/fleet-calibration/umbmark'), fleetForm({ ...robot }, { runs }), options),
+  /** Fits a1..a4 to paired odometry and reference poses; stores nothing. 400 `calibration_rows` lists the rows to fix. */
+  previewAlphaFit: (orgId: number, poses: File, options: UploadOptions = {}) =>
+    upload<{ alphaFit: AlphaFitView }>(orgPath(orgId, '/fleet-calibration/alpha-fit'), fleetForm({}, { poses }), options),
+  /** Saves a profile from the same files (either may be missing, not both). */
+  create: (orgId: number, fields: FleetRobotFormFields & { name: string }, files: { runs?: File | null; poses?: File | null }, options: UploadOptions = {}) =>
+    upload<{ profile: FleetProfileDetail }>(orgPath(orgId, '/fleet-profiles'), fleetForm({ ...fields }, files), options),
+  list: (orgId: number, signal?: AbortSignal) =>
+    request<{ items: FleetProfileSummary[] }>('GET', orgPath(orgId, '/fleet-profiles'), { signal }),
+  get: (orgId: number, profileId: string, signal?: AbortSignal) =>
+    request<{ profile: FleetProfileDetail }>('GET', fleetProfilePath(orgId, profileId), { signal }),
+  /** A plain link to a stored source file (the browser downloads it with the session cookie). */
+  fileUrl: (orgId: number, profileId: string, kind: FleetFileKind) =>
+    fleetProfilePath(orgId, profileId, `/files/${encodeURIComponent(kind)}`),
+  /** Replaces the practice trials that run on the profile. */
+  setPracticeTrials: (orgId: number, profileId: string, trialIds: string[]) =>
+    request<{ profile: FleetProfileDetail }>('PUT', fleetProfilePath(orgId, profileId, '/practice-trials'), { body: { trialIds } }),
+  archive: (orgId: number, profileId: string) =>
+    request<{ profile: FleetProfileDetail }>('POST', fleetProfilePath(orgId, profileId, '/archive')),
+  /** Public: a sample file of each kind. */
+  sampleUrl: (kind: FleetFileKind) => `/api/fleet-calibration/samples/${encodeURIComponent(kind)}`,
+  /** Operator: the practice trials that run on their organization's fleet profiles. */
+  practice: (signal?: AbortSignal) => request<{ items: FleetPracticeTrial[] }>('GET', '/api/fleet-practice', { signal }),
 };
 
 // ---------------------------------------------------------------------------------------
@@ -624,4 +685,5 @@ export const api = {
   reviews: reviewsApi,
   credentials: credentialsApi,
   verify: verifyApi,
+  fleet: fleetApi,
 };

@@ -109,6 +109,25 @@ export const routes: RouteRecordRaw[] = [
     meta: { roles: ['employer'], title: 'Organization profile' },
   },
   {
+    path: '/employer/fleet',
+    name: 'employer-fleet',
+    component: () => import('@/views/employer/FleetProfilesView.vue'),
+    meta: { roles: ['employer'], title: 'Fleet calibration' },
+  },
+  {
+    path: '/employer/fleet/new',
+    name: 'employer-fleet-new',
+    // The plots carry chart.js (through PrimeVue's Chart, loaded lazily with this page).
+    component: () => import('@/views/employer/FleetProfileNewView.vue'),
+    meta: { roles: ['employer'], title: 'New fleet profile' },
+  },
+  {
+    path: '/employer/fleet/:profileId',
+    name: 'employer-fleet-profile',
+    component: () => import('@/views/employer/FleetProfileView.vue'),
+    meta: { roles: ['employer'], title: 'Fleet profile' },
+  },
+  {
     path: '/operator',
     name: 'operator-home',
     component: () => import('@/views/home/OperatorHomeView.vue'),

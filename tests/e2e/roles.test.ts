@@ -16,7 +16,7 @@ import {
 
 const ACCOUNTS = [
   { account: 'admin', home: '/admin', heading: 'Administrator home', role: 'Administrator', nav: ['Home', 'Users', 'Orders', 'Pricing', 'Credentials', 'Mail sink'], safety: false },
-  { account: 'employer', home: '/employer', heading: 'Employer home', role: 'Employer', nav: ['Home', 'Enrol', 'Seats', 'Credentials', 'Organization'], safety: true },
+  { account: 'employer', home: '/employer', heading: 'Employer home', role: 'Employer', nav: ['Home', 'Enrol', 'Seats', 'Fleet calibration', 'Credentials', 'Organization'], safety: true },
   { account: 'hr', home: '/hr', heading: 'HR home', role: 'HR', nav: ['Home', 'Verify', 'Bulk check', 'Credentials'], safety: true },
   { account: 'assessor', home: '/assessor', heading: 'Assessor home', role: 'Assessor', nav: ['Home', 'Review queue', 'Credentials'], safety: false },
   { account: 'operator1', home: '/operator', heading: 'Operator home', role: 'Operator', nav: ['Home', 'Trials', 'Credentials'], safety: true },

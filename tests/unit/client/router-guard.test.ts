@@ -95,7 +95,7 @@ describe('decideNavigation (pure)', () => {
       }
     }
     expect(navigationFor('admin').map((l) => l.label)).toEqual(['Home', 'Users', 'Orders', 'Pricing', 'Credentials', 'Mail sink']);
-    expect(navigationFor('employer').map((l) => l.label)).toEqual(['Home', 'Enrol', 'Seats', 'Credentials', 'Organization']);
+    expect(navigationFor('employer').map((l) => l.label)).toEqual(['Home', 'Enrol', 'Seats', 'Fleet calibration', 'Credentials', 'Organization']);
     expect(navigationFor('operator').map((l) => l.label)).toEqual(['Home', 'Trials', 'Credentials']);
     expect(navigationFor('hr').map((l) => l.label)).toEqual(['Home', 'Verify', 'Bulk check', 'Credentials']);
   });
