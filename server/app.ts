@@ -16,6 +16,7 @@ import { absoluteSessionLimit, IDLE_HOURS } from './http/session-limits';
 import { attemptRoutes } from './routes/attempts';
 import { authRoutes, SESSION_COOKIE } from './routes/auth';
 import { credentialRoutes } from './routes/credentials';
+import { fleetRoutes } from './routes/fleet';
 import { healthRoutes } from './routes/health';
 import { mailMessageRoutes } from './routes/mail-messages';
 import { organizationRoutes } from './routes/organizations';
@@ -88,6 +89,7 @@ export function createApp(ctx: AppContext) {
   api.use(paymentRoutes(ctx));
   api.use(organizationRoutes(ctx));
   api.use(credentialRoutes(ctx));
+  api.use(fleetRoutes(ctx));
   api.use((req, _res, next) => next(new HttpError(404, 'not_found', `No API route for ${req.method} ${req.path}.`)));
   app.use('/api', api);
 

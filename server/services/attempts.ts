@@ -8,6 +8,7 @@ import { randomUUID } from 'node:crypto';
 import { isDeepStrictEqual } from 'node:util';
 import type { Transaction } from 'sequelize';
 import type {
+  AttemptCreate,
   AttemptStart,
   AttemptSummary,
   AttemptView,
@@ -20,10 +21,12 @@ import type { z } from 'zod';
 import { attemptListQuerySchema } from '../../shared/schemas';
 import { DriveError, DriveSim, type DriveErrorCode, type EstimatePin } from '../../shared/sim';
 import type { AppContext } from '../context';
-import { Attempt, AttemptLogEntry, User } from '../db/models';
+import { Attempt, AttemptLogEntry, FleetProfile, User } from '../db/models';
 import type { AttemptLogKind } from '../db/models/attempt-log-entry';
 import { HttpError, notFound } from '../http/errors';
 import { JOBS } from '../jobs/queue';
+import { driveContentFor, publicDriveTrial } from './drive-content';
+import { practiceProfileFor } from './fleet-profiles';
 import { takeExamSeat } from './seats';
 import { publicTrial } from './trials';
 
@@ -55,16 +58,27 @@ export function summary(attempt: Attempt, ctx: AppContext, userName: string): At
     userId: attempt.userId,
     userName,
     organizationId: attempt.organizationId,
-    fleetProfile: null,
+    fleetProfile: attempt.fleetProfileId ? { id: attempt.fleetProfileId, name: attempt.fleetProfile?.name ?? '' } : null,
     createdAt: attempt.createdAt.toISOString(),
     submittedAt: attempt.submittedAt?.toISOString() ?? null,
   };
 }
 
-/** Starts a drive: practice for free, exam on one of the operator's seats. */
-export async function startAttempt(ctx: AppContext, actor: Actor, input: { trialId: string; mode: 'practice' | 'exam' }): Promise<AttemptStart> {
+/** What a summary shows of an attempt's owner and fleet profile: include these when loading attempts. */
+export const SUMMARY_INCLUDES = [
+  { model: User, as: 'user', attributes: ['name'] },
+  { model: FleetProfile.scope('summary'), as: 'fleetProfile', attributes: ['id', 'name'] },
+];
+
+/**
+ * Starts a drive: practice for free (on the standard drift profile, or on a fleet profile of the
+ * operator's organization that has this practice trial), exam on one of the operator's seats.
+ */
+export async function startAttempt(ctx: AppContext, actor: Actor, input: AttemptCreate): Promise<AttemptStart> {
   const trial = publicTrial(ctx.content, input.trialId);
+  let fleetProfile: FleetProfile | null = null;
   const attempt = await ctx.sequelize.transaction(async (transaction) => {
+    if (input.fleetProfileId) fleetProfile = await practiceProfileFor(ctx, actor, input.fleetProfileId, trial.id, transaction);
     const created = await Attempt.create(
       {
         id: randomUUID(),
@@ -75,6 +89,7 @@ export async function startAttempt(ctx: AppContext, actor: Actor, input: { trial
         mode: input.mode,
         secretSeed: ctx.newSeed(),
         publicSeed: ctx.newSeed(),
+        fleetProfileId: fleetProfile?.id ?? null,
         submittedAt: null,
       },
       { transaction },
@@ -82,22 +97,16 @@ export async function startAttempt(ctx: AppContext, actor: Actor, input: { trial
     if (input.mode === 'exam') await takeExamSeat(actor.organizationId, created.id, actor.id, transaction);
     return created;
   });
-  const sim = newDrive(ctx, attempt);
+  attempt.fleetProfile = fleetProfile;
+  const sim = await newDrive(ctx, attempt);
   ctx.drives.set(attempt.id, { logLength: 0, userId: attempt.userId, sim });
-  return { attempt: summary(attempt, ctx, actor.name), publicSeed: attempt.publicSeed, trial, state: sim.state() };
+  return { attempt: summary(attempt, ctx, actor.name), publicSeed: attempt.publicSeed, trial: publicDriveTrial(ctx.content, sim.setup), state: sim.state() };
 }
 
-function newDrive(ctx: AppContext, attempt: Attempt): DriveSim {
-  const trial = ctx.content.trials.get(attempt.trialId);
-  if (!trial || ctx.content.trialHashes.get(attempt.trialId) !== attempt.contentHash) {
-    throw new HttpError(409, 'trial_changed', 'This trial has changed since the attempt started, so the drive cannot be rebuilt.');
-  }
-  return new DriveSim({
-    trial,
-    robot: ctx.content.robots.get(trial.robotId)!,
-    surfaces: [...ctx.content.surfaces.values()],
-    secretSeed: attempt.secretSeed,
-  });
+/** A fresh drive of an attempt, on its effective trial and robot (drive-content.ts). */
+async function newDrive(ctx: AppContext, attempt: Attempt, transaction?: Transaction): Promise<DriveSim> {
+  const { trial, robot } = await driveContentFor(ctx, attempt, transaction);
+  return new DriveSim({ trial, robot, surfaces: [...ctx.content.surfaces.values()], secretSeed: attempt.secretSeed });
 }
 
 /** Applies one stored log entry to a drive being rebuilt. */
@@ -114,7 +123,7 @@ function replay(sim: DriveSim, entry: Pick<AttemptLogEntry, 'kind' | 'request'>)
 export async function driveOf(ctx: AppContext, attempt: Attempt, transaction?: Transaction): Promise<DriveSim> {
   const cached = ctx.drives.get(attempt.id);
   if (cached && cached.logLength === attempt.logLength) return cached.sim;
-  const sim = newDrive(ctx, attempt);
+  const sim = await newDrive(ctx, attempt, transaction);
   const entries = await AttemptLogEntry.findAll({ where: { attemptId: attempt.id }, order: [['entryNo', 'ASC']], transaction });
   for (const entry of entries) replay(sim, entry);
   ctx.drives.set(attempt.id, { logLength: entries.length, userId: attempt.userId, sim });
@@ -276,13 +285,13 @@ export function canSee(actor: Actor, attempt: Attempt): boolean {
 }
 
 export async function viewAttempt(ctx: AppContext, actor: Actor, attemptId: string): Promise<AttemptView> {
-  const attempt = await Attempt.findByPk(attemptId, { include: [{ model: User, as: 'user' }] });
+  const attempt = await Attempt.findByPk(attemptId, { include: SUMMARY_INCLUDES });
   if (!attempt || !canSee(actor, attempt)) throw notFound('That attempt');
   const sim = await ctx.drives.exclusive(attemptId, () => driveOf(ctx, attempt));
   const userName = (attempt as Attempt & { user?: User }).user?.name ?? '';
   const view: AttemptView = {
     attempt: summary(attempt, ctx, userName),
-    trial: publicTrial(ctx.content, attempt.trialId),
+    trial: publicDriveTrial(ctx.content, sim.setup),
     publicSeed: attempt.publicSeed,
     state: sim.state(),
     odometryTrail: sim.trace.map((s) => s.odometry),
@@ -310,7 +319,7 @@ export async function listAttempts(ctx: AppContext, actor: Actor, query: z.infer
   if (query.trialId) where.trialId = query.trialId;
   const { rows, count } = await Attempt.findAndCountAll({
     where,
-    include: [{ model: User, as: 'user', attributes: ['name'] }],
+    include: SUMMARY_INCLUDES,
     order: [['createdAt', query.sortOrder.toUpperCase()], ['id', 'ASC']],
     limit: query.pageSize,
     offset: (query.page - 1) * query.pageSize,

@@ -13,14 +13,17 @@ import { driveOf } from './attempts';
 import { issueCredentialsFor } from './credentials';
 import { resultEmail } from './emails';
 
-/** Computes the score of a submitted attempt from its stored log. */
+/**
+ * Computes the score of a submitted attempt from its stored log, with the trial and robot the
+ * drive ran on (a fleet profile's robot and alphas for practice on one; drive-content.ts).
+ */
 export async function computeScore(ctx: AppContext, attempt: Attempt): Promise<Score> {
   const sim = await driveOf(ctx, attempt);
-  const trial = ctx.content.trials.get(attempt.trialId)!;
+  const { trial, robot } = sim.setup;
   const state = sim.state();
   return scoreAttempt({
     trial,
-    robot: ctx.content.robots.get(trial.robotId)!,
+    robot,
     surfaces: [...ctx.content.surfaces.values()],
     publicSeed: attempt.publicSeed,
     trace: sim.trace,

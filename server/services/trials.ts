@@ -1,16 +1,11 @@
 /** The public face of the content: trials without their hidden errors, levels with trial titles. */
 import type { PublicLevel, PublicTrial } from '../../shared/schemas';
 import type { Content } from '../content/load';
-import { notFound } from '../http/errors';
+import { effectiveDriveContent, publicDriveTrial } from './drive-content';
 
+/** A trial as the content has it (its standard drift profile), without the hidden errors. */
 export function publicTrial(content: Content, trialId: string): PublicTrial {
-  const trial = content.trials.get(trialId);
-  if (!trial) throw notFound('That trial');
-  const { hiddenErrors: _trialErrors, ...rest } = trial;
-  const { hiddenErrors: _robotErrors, ...robot } = content.robots.get(trial.robotId)!;
-  const surfaceIds = new Set(trial.zones.map((z) => z.surfaceId));
-  const surfaces = [...content.surfaces.values()].filter((s) => surfaceIds.has(s.id) || s.driftMultiplier === 1);
-  return { ...rest, robot, surfaces };
+  return publicDriveTrial(content, effectiveDriveContent(content, trialId, null));
 }
 
 export interface TrialSummary {

@@ -1,4 +1,5 @@
-import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
+import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type NonAttribute, type Sequelize } from 'sequelize';
+import type { FleetProfile } from './fleet-profile';
 import type { DriveStatus } from '../../../shared/sim';
 
 export type AttemptMode = 'practice' | 'exam';
@@ -19,6 +20,10 @@ export class Attempt extends Model<InferAttributes<Attempt>, InferCreationAttrib
   declare nextSeq: CreationOptional<number>;
   declare logLength: CreationOptional<number>;
   declare submittedAt: Date | null;
+  /** The fleet profile a practice drive runs on (null: the trial's standard drift profile). */
+  declare fleetProfileId: CreationOptional<string | null>;
+  /** Loaded with `include: 'fleetProfile'` (its id and name) where a summary needs the name. */
+  declare fleetProfile?: NonAttribute<FleetProfile | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 
@@ -37,6 +42,7 @@ export class Attempt extends Model<InferAttributes<Attempt>, InferCreationAttrib
         nextSeq: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
         logLength: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
         submittedAt: { type: DataTypes.DATE, allowNull: true },
+        fleetProfileId: { type: DataTypes.UUID, allowNull: true },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },

@@ -5,6 +5,7 @@ import { AttemptReview } from './attempt-review';
 import { AttemptScore } from './attempt-score';
 import { ReviewAuditEntry } from './review-audit-entry';
 import { Credential } from './credential';
+import { FleetPracticeTrial, FleetProfile, FleetProfileFile } from './fleet-profile';
 import { LevelAssignment } from './level-assignment';
 import { SeatLedgerEntry } from './seat-ledger-entry';
 import { SeatOrder } from './seat-order';
@@ -13,7 +14,7 @@ import { Organization } from './organization';
 import { PasswordToken } from './password-token';
 import { User } from './user';
 
-export { Attempt, AttemptLogEntry, AttemptReview, AttemptScore, Credential, LevelAssignment, ReviewAuditEntry, SeatLedgerEntry, SeatOrder, MailMessage, Organization, PasswordToken, User };
+export { Attempt, AttemptLogEntry, AttemptReview, AttemptScore, Credential, FleetPracticeTrial, FleetProfile, FleetProfileFile, LevelAssignment, ReviewAuditEntry, SeatLedgerEntry, SeatOrder, MailMessage, Organization, PasswordToken, User };
 
 /** Registers every model and association on a Sequelize instance. */
 export function initModels(sequelize: Sequelize) {
@@ -30,6 +31,9 @@ export function initModels(sequelize: Sequelize) {
   AttemptScore.initModel(sequelize);
   AttemptReview.initModel(sequelize);
   ReviewAuditEntry.initModel(sequelize);
+  FleetProfile.initModel(sequelize);
+  FleetProfileFile.initModel(sequelize);
+  FleetPracticeTrial.initModel(sequelize);
 
   Organization.hasMany(User, { foreignKey: 'organizationId', as: 'users' });
   User.belongsTo(Organization, { foreignKey: 'organizationId', as: 'organization' });
@@ -44,4 +48,8 @@ export function initModels(sequelize: Sequelize) {
   ReviewAuditEntry.belongsTo(User, { foreignKey: 'actorId', as: 'actor' });
   Credential.belongsTo(User, { foreignKey: 'userId', as: 'holder' });
   Credential.belongsTo(Organization, { foreignKey: 'organizationId', as: 'organization' });
+  FleetProfile.belongsTo(User, { foreignKey: 'createdBy', as: 'creator' });
+  FleetProfile.hasMany(FleetProfileFile, { foreignKey: 'profileId', as: 'files' });
+  FleetProfile.hasMany(FleetPracticeTrial, { foreignKey: 'profileId', as: 'practiceTrials' });
+  Attempt.belongsTo(FleetProfile, { foreignKey: 'fleetProfileId', as: 'fleetProfile' });
 }
