@@ -152,5 +152,8 @@ export function uploadFailure<T>(fileName: string | null, error: unknown, fallba
     const message = isApiError(error) ? error.message : fallback;
     return { step: 'problems', fileName, message, problems };
   }
-  return { step: 'failed', fileName, message: isApiError(error) ? error.message : fallback };
+  if (!isApiError(error)) return { step: 'failed', fileName, message: fallback };
+  // A refused field (e.g. an unknown robot, or drift outside what a profile may have) says more than the headline.
+  const fieldMessages = Object.values(error.fields).filter((m) => m && m !== error.message);
+  return { step: 'failed', fileName, message: fieldMessages.length ? fieldMessages.join(' ') : error.message };
 }

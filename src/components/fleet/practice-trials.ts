@@ -2,10 +2,12 @@
 import type { FleetPracticeTrial } from '@shared/schemas';
 import type { TrialSummary } from '@/api';
 
-/** The trials driven by the profile's robot model first, then the rest, each group by title. */
-export function sortedForRobot(trials: readonly TrialSummary[], robotName: string): TrialSummary[] {
-  const same = (t: TrialSummary) => (t.robotName === robotName ? 0 : 1);
-  return [...trials].sort((a, b) => same(a) - same(b) || a.title.localeCompare(b.title));
+/**
+ * The trials a profile can run on: those driven by the profile's robot model (a fleet profile
+ * replaces the drift of one robot model), by title.
+ */
+export function trialsForRobot(trials: readonly TrialSummary[], robotName: string): TrialSummary[] {
+  return trials.filter((t) => t.robotName === robotName).sort((a, b) => a.title.localeCompare(b.title));
 }
 
 /** Whether two lists hold the same trial ids, in any order. */

@@ -15,7 +15,7 @@ import {
   type RobotChoice,
   type RobotGeometry,
 } from '@/components/fleet/fleet-form';
-import { groupByProfile, sameTrialIds, sortedForRobot } from '@/components/fleet/practice-trials';
+import { groupByProfile, sameTrialIds, trialsForRobot } from '@/components/fleet/practice-trials';
 import { oneTrialPerRobot } from '@/components/fleet/use-content-robots';
 import { CSV_COLUMNS } from '@/components/fleet/csv-columns';
 
@@ -103,6 +103,10 @@ describe('the rest of the form', () => {
     expect(rowProblemsOf(other)).toBeNull();
     expect(uploadFailure('runs.csv', other, 'fallback')).toEqual({ step: 'failed', fileName: 'runs.csv', message: 'The file is too large.' });
     expect(uploadFailure('runs.csv', new Error('boom'), 'The runs could not be read.')).toMatchObject({ message: 'The runs could not be read.' });
+    const refused = new ApiError(400, 'drift_out_of_range', 'The runs give Ed = 1.2000.', { runs: 'The runs give Ed = 1.2000.' });
+    expect(uploadFailure('runs.csv', refused, 'fallback')).toMatchObject({ message: 'The runs give Ed = 1.2000.' });
+    const field = new ApiError(400, 'validation_failed', 'Some fields need attention.', { robotId: 'No robot "x".' });
+    expect(uploadFailure('runs.csv', field, 'fallback')).toMatchObject({ message: 'No robot "x".' });
   });
 
   it('describes every column the server reads, required ones first', () => {
@@ -115,9 +119,9 @@ describe('the rest of the form', () => {
 describe('practice trials on a fleet profile', () => {
   const trial = (id: string, title: string, robotName: string): TrialSummary => ({ id, title, summary: '', robotName, timeLimit: 60, levelIds: [] });
 
-  it('offers the trials of the profile robot first', () => {
+  it("offers only the trials of the profile's robot model, by title", () => {
     const list = [trial('a', 'Zebra', 'Rover'), trial('b', 'Beta', 'Tugger'), trial('c', 'Alpha', 'Rover'), trial('d', 'Alpha', 'Tugger')];
-    expect(sortedForRobot(list, 'Tugger').map((t) => t.id)).toEqual(['d', 'b', 'c', 'a']);
+    expect(trialsForRobot(list, 'Tugger').map((t) => t.id)).toEqual(['d', 'b']);
   });
 
   it('compares choices in any order', () => {
