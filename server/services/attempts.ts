@@ -65,9 +65,9 @@ export function summary(attempt: Attempt, ctx: AppContext, userName: string): At
 }
 
 /** What a summary shows of an attempt's owner and fleet profile: include these when loading attempts. */
-export const SUMMARY_INCLUDES = [
+export const summaryIncludes = () => [
   { model: User, as: 'user', attributes: ['name'] },
-  { model: FleetProfile.scope('summary'), as: 'fleetProfile', attributes: ['id', 'name'] },
+  { model: FleetProfile, as: 'fleetProfile', attributes: ['id', 'name'] },
 ];
 
 /**
@@ -285,7 +285,7 @@ export function canSee(actor: Actor, attempt: Attempt): boolean {
 }
 
 export async function viewAttempt(ctx: AppContext, actor: Actor, attemptId: string): Promise<AttemptView> {
-  const attempt = await Attempt.findByPk(attemptId, { include: SUMMARY_INCLUDES });
+  const attempt = await Attempt.findByPk(attemptId, { include: summaryIncludes() });
   if (!attempt || !canSee(actor, attempt)) throw notFound('That attempt');
   const sim = await ctx.drives.exclusive(attemptId, () => driveOf(ctx, attempt));
   const userName = (attempt as Attempt & { user?: User }).user?.name ?? '';
@@ -319,7 +319,7 @@ export async function listAttempts(ctx: AppContext, actor: Actor, query: z.infer
   if (query.trialId) where.trialId = query.trialId;
   const { rows, count } = await Attempt.findAndCountAll({
     where,
-    include: SUMMARY_INCLUDES,
+    include: summaryIncludes(),
     order: [['createdAt', query.sortOrder.toUpperCase()], ['id', 'ASC']],
     limit: query.pageSize,
     offset: (query.page - 1) * query.pageSize,

@@ -3,12 +3,12 @@ import type { AttemptReport } from '../../shared/schemas';
 import type { AppContext } from '../context';
 import { Attempt, AttemptScore, User } from '../db/models';
 import { HttpError, notFound } from '../http/errors';
-import { canSee, driveOf, summary, SUMMARY_INCLUDES } from './attempts';
+import { canSee, driveOf, summary, summaryIncludes } from './attempts';
 import { publicDriveTrial } from './drive-content';
 import { reviewInfo } from './reviews';
 
 export async function attemptReport(ctx: AppContext, actor: Express.User, attemptId: string): Promise<AttemptReport> {
-  const attempt = (await Attempt.findByPk(attemptId, { include: SUMMARY_INCLUDES })) as (Attempt & { user?: User }) | null;
+  const attempt = (await Attempt.findByPk(attemptId, { include: summaryIncludes() })) as (Attempt & { user?: User }) | null;
   if (!attempt || !canSee(actor, attempt)) throw notFound('That attempt');
   if (attempt.status !== 'submitted') throw new HttpError(409, 'not_submitted', 'A report exists only for a submitted drive.');
   const score = await AttemptScore.findByPk(attemptId);
