@@ -35,9 +35,9 @@ export function configurePassport() {
   );
   passport.serializeUser((user, done) => done(null, user.id));
   passport.deserializeUser((id: number, done) => {
-    User.findByPk(id, { include: [{ model: Organization, as: 'organization' }] }).then(
+    User.findSignedIn(id).then(
       // A deactivated or deleted account is signed out on its next request.
-      (user) => done(null, user?.active ? user.toPublic() : false),
+      (user) => done(null, user?.active ? user : false),
       done,
     );
   });

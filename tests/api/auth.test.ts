@@ -25,6 +25,15 @@ describe('sign-in', () => {
     expect(after.body.error.code).toBe('unauthenticated');
   });
 
+  it('answers /me with the same account the sign-in returned, organization name included', async () => {
+    const agent = request.agent(t.app);
+    const signIn = await agent.post('/api/auth/sign-in').send({ email: demoEmail('employer'), password: password() }).expect(200);
+    const me = await agent.get('/api/auth/me').expect(200);
+    expect(me.body.user).toEqual(signIn.body.user);
+    expect(me.body.user.organizationName).toMatch(/\(demo\)$/);
+    expect(me.body.user.lastSignInAt).not.toBeNull();
+  });
+
   it('accepts the e-mail in any case and with spaces around it', async () => {
     await request(t.app).post('/api/auth/sign-in').send({ email: `  ${demoEmail('hr').toUpperCase()} `, password: password() }).expect(200);
   });

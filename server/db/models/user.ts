@@ -1,6 +1,7 @@
 import {
   DataTypes,
   Model,
+  QueryTypes,
   type CreationOptional,
   type ForeignKey,
   type InferAttributes,
@@ -10,6 +11,26 @@ import {
 } from 'sequelize';
 import type { PublicUser, Role } from '../../../shared/schemas';
 import type { Organization } from './organization';
+
+type PublicUserFields = Pick<User, 'id' | 'email' | 'name' | 'role' | 'organizationId' | 'active' | 'lastSignInAt' | 'emailConfirmedAt' | 'createdAt'> & {
+  organizationName: string | null;
+};
+
+/** The one rule for what of an account the API shows: never the password hash. */
+function publicUser(u: PublicUserFields): PublicUser {
+  return {
+    id: u.id,
+    email: u.email,
+    name: u.name,
+    role: u.role,
+    organizationId: u.organizationId ?? null,
+    organizationName: u.organizationName,
+    active: u.active,
+    lastSignInAt: u.lastSignInAt?.toISOString() ?? null,
+    emailConfirmed: u.emailConfirmedAt != null,
+    createdAt: u.createdAt.toISOString(),
+  };
+}
 
 export class User extends Model<InferAttributes<User>, InferCreationAttributes<User>> {
   declare id: CreationOptional<number>;
@@ -28,18 +49,22 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
 
   /** The shape the API returns: never the password hash. */
   toPublic(): PublicUser {
-    return {
-      id: this.id,
-      email: this.email,
-      name: this.name,
-      role: this.role,
-      organizationId: this.organizationId ?? null,
-      organizationName: this.organization?.name ?? null,
-      active: this.active,
-      lastSignInAt: this.lastSignInAt?.toISOString() ?? null,
-      emailConfirmed: this.emailConfirmedAt != null,
-      createdAt: this.createdAt.toISOString(),
-    };
+    return publicUser({ ...this.get(), organizationName: this.organization?.name ?? null });
+  }
+
+  /**
+   * The account behind a session, with its organization's name, in one light query: every signed-in
+   * request runs it, so it builds no model instances. Null when the account is gone.
+   */
+  static async findSignedIn(id: number): Promise<PublicUser | null> {
+    const rows = await User.sequelize!.query<PublicUserFields>(
+      `SELECT u.id, u.email, u.name, u.role, u.organization_id AS "organizationId", o.name AS "organizationName", u.active,
+              u.last_sign_in_at AS "lastSignInAt", u.email_confirmed_at AS "emailConfirmedAt", u.created_at AS "createdAt"
+         FROM users u LEFT JOIN organizations o ON o.id = u.organization_id
+        WHERE u.id = $1`,
+      { bind: [id], type: QueryTypes.SELECT },
+    );
+    return rows.length ? publicUser(rows[0]) : null;
   }
 
   static initModel(sequelize: Sequelize) {
