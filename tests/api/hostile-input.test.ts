@@ -54,6 +54,7 @@ interface Target {
 }
 
 let attemptId = '';
+let fleetProfileId = '';
 const TARGETS: Target[] = [
   { caller: 'anonymous', method: 'post', path: '/api/auth/sign-in', fields: { email: 'email', password: 'string' } },
   { caller: 'anonymous', method: 'post', path: '/api/auth/password-reset', fields: { email: 'email' } },
@@ -70,9 +71,13 @@ const TARGETS: Target[] = [
   { caller: 'employer', method: 'post', path: '/api/organizations/1/orders', fields: { quantity: 'int' } },
   { caller: 'employer', method: 'post', path: '/api/organizations/1/operators', fields: { email: 'email', name: 'string', levelIds: 'array' } },
   { caller: 'employer', method: 'put', path: '/api/organizations/1/operators/5/levels', fields: { levelIds: 'array' } },
-  { caller: 'operator1', method: 'post', path: '/api/attempts', fields: { trialId: 'string', mode: 'enum' } },
+  { caller: 'operator1', method: 'post', path: '/api/attempts', fields: { trialId: 'string', mode: 'enum', fleetProfileId: 'token' } },
   { caller: 'operator1', method: 'post', path: () => `/api/attempts/${attemptId}/steps`, fields: { fromSeq: 'int', commands: 'array' } },
   { caller: 'operator1', method: 'post', path: () => `/api/attempts/${attemptId}/calls`, fields: { callPointId: 'string', call: 'enum', estimate: 'object' } },
+  // Multipart routes read their text fields from a JSON body too (and refuse it for want of files).
+  { caller: 'employer', method: 'post', path: '/api/organizations/1/fleet-calibration/umbmark', fields: { robotId: 'string', wheelRadius: 'number', wheelbase: 'number', ticksPerRevolution: 'int' } },
+  { caller: 'employer', method: 'post', path: '/api/organizations/1/fleet-profiles', fields: { name: 'string', robotId: 'string', wheelRadius: 'number', ticksPerRevolution: 'int' } },
+  { caller: 'employer', method: 'put', path: () => `/api/organizations/1/fleet-profiles/${fleetProfileId}/practice-trials`, fields: { trialIds: 'array' } },
   { caller: 'assessor', method: 'post', path: '/api/reviews/00000000-0000-4000-8000-000000000000/verdict', fields: { verdict: 'enum', reason: 'string', amendments: 'array' } },
 ];
 
@@ -86,7 +91,7 @@ const QUERIES: { caller: Caller; path: string; bad: Record<string, unknown>[] }[
 ];
 
 const agents = {} as Record<Caller, Agent>;
-const TABLES = ['users', 'organizations', 'attempts', 'attempt_log', 'seat_ledger', 'seat_orders', 'credentials', 'level_assignments', 'attempt_reviews', 'settings', 'password_tokens'];
+const TABLES = ['users', 'organizations', 'attempts', 'attempt_log', 'seat_ledger', 'seat_orders', 'credentials', 'level_assignments', 'attempt_reviews', 'settings', 'password_tokens', 'fleet_profiles', 'fleet_profile_files', 'fleet_practice_trials'];
 async function counts() {
   const out: Record<string, number> = {};
   for (const table of TABLES) {
@@ -101,6 +106,7 @@ beforeAll(async () => {
   agents.anonymous = (await import('supertest')).default.agent(t.app);
   for (const c of ['admin', 'employer', 'operator1', 'assessor'] as const) agents[c] = await signedInAgent(t.app, c);
   attemptId = (await startDrive(agents.operator1, 'long-aisle-run')).attempt.id;
+  fleetProfileId = (await agents.employer.get('/api/organizations/1/fleet-profiles').expect(200)).body.items[0].id;
 });
 
 describe('hostile input', () => {
@@ -172,6 +178,36 @@ describe('hostile input', () => {
     expect(wrongField.status).toBe(400);
     const bulk = await agents.employer.post('/api/verify/bulk').attach('numbers', png, '../x.png');
     expect(bulk.status).toBe(400);
+
+    // Fleet calibration uploads: every bad file is a 4xx (row problems, size, a broken body), never a 500, and nothing is stored.
+    const fleet = [
+      { path: '/api/organizations/1/fleet-calibration/umbmark', field: 'runs', fields: { robotId: 'aisle-tugger' } },
+      { path: '/api/organizations/1/fleet-calibration/alpha-fit', field: 'poses', fields: {} },
+      { path: '/api/organizations/1/fleet-profiles', field: 'runs', fields: { name: 'Hostile', robotId: 'aisle-tugger' } },
+      { path: '/api/organizations/1/fleet-profiles', field: 'poses', fields: { name: 'Hostile', robotId: 'aisle-tugger' } },
+    ];
+    const fleetFiles: [Buffer, string][] = [
+      [png, 'photo.png'],
+      [Buffer.from(`direction,x_error,y_error\n${'cw,0.1,0.1\n'.repeat(20_000)}`), 'many.csv'],
+      [Buffer.from(`odom_x,odom_y,odom_theta,ref_x,ref_y,ref_theta\n${'0,0,0,0,0,0\n'.repeat(20_001)}`), 'many-poses.csv'],
+      [Buffer.from('direction,x_error,y_error\n"=cmd|\' /C calc\'!A0",1,2\n'), '../../../etc/passwd'],
+      [Buffer.from('\ufeff"unclosed,quote\n'), 'C:\\Windows\\evil.csv'],
+      [Buffer.alloc(0), 'empty.csv'],
+      [Buffer.alloc(5 * 1024 * 1024 + 1, 'a'), 'huge.csv'],
+    ];
+    for (const target of fleet) {
+      for (const [content, name] of fleetFiles) {
+        const req = agents.employer.post(target.path);
+        for (const [k, v] of Object.entries(target.fields)) req.field(k, v);
+        const res = await req.attach(target.field, content, name);
+        const where = `${target.path} ${target.field} ${name} → ${res.status} ${res.text.slice(0, 200)}`;
+        expect(res.status, where).toBeGreaterThanOrEqual(400);
+        expect(res.status, where).toBeLessThan(500);
+        expect(res.body.error?.message, where).toBeTruthy();
+      }
+      expect((await agents.employer.post(target.path).attach(target.field, Buffer.from('a,b\n'), '\u0000.csv')).status).toBe(400);
+      expect((await agents.employer.post(target.path).attach('other', Buffer.from('a,b\n'), 'r.csv')).status).toBe(400);
+    }
     expect(await counts()).toEqual(before);
   });
 });

@@ -81,6 +81,16 @@ const MATRIX: [string, string, Record<Caller, Outcome>][] = [
   ['POST /api/credentials/:id/revoke', '/api/credentials/999999/revoke', only('admin', 'assessor')],
   ['GET /api/verify/:number', '/api/verify/DPC-0000-0000-0', PUBLIC],
   ['POST /api/verify/bulk', '/api/verify/bulk', only('hr', 'employer', 'otherOrgEmployer', 'admin')],
+  ['POST /api/organizations/:orgId/fleet-calibration/umbmark', '/api/organizations/1/fleet-calibration/umbmark', only('employer')],
+  ['POST /api/organizations/:orgId/fleet-calibration/alpha-fit', '/api/organizations/1/fleet-calibration/alpha-fit', only('employer')],
+  ['POST /api/organizations/:orgId/fleet-profiles', '/api/organizations/1/fleet-profiles', only('employer')],
+  ['GET /api/organizations/:orgId/fleet-profiles', '/api/organizations/1/fleet-profiles', ORG],
+  ['GET /api/organizations/:orgId/fleet-profiles/:profileId', `/api/organizations/1/fleet-profiles/${NO_ATTEMPT}`, ORG],
+  ['GET /api/organizations/:orgId/fleet-profiles/:profileId/files/:kind', `/api/organizations/1/fleet-profiles/${NO_ATTEMPT}/files/umbmark`, ORG],
+  ['PUT /api/organizations/:orgId/fleet-profiles/:profileId/practice-trials', `/api/organizations/1/fleet-profiles/${NO_ATTEMPT}/practice-trials`, only('employer')],
+  ['POST /api/organizations/:orgId/fleet-profiles/:profileId/archive', `/api/organizations/1/fleet-profiles/${NO_ATTEMPT}/archive`, only('employer')],
+  ['GET /api/fleet-practice', '/api/fleet-practice', only('operator')],
+  ['GET /api/fleet-calibration/samples/:kind', '/api/fleet-calibration/samples/umbmark', PUBLIC],
   // Last: it ends the callers' sessions.
   ['POST /api/auth/sign-out', '/api/auth/sign-out', PUBLIC],
 ];
