@@ -11,7 +11,7 @@ import { computed, onBeforeUnmount, onMounted, reactive, ref, shallowRef, watch 
 import type { Pose } from '@shared/motion';
 import type { AttemptSummary, AttemptView, Call, PublicTrial } from '@shared/schemas';
 import { Belief, World, type BatchResult, type BeliefSnapshot, type Command, type DriveState, type EstimatePin } from '@shared/sim';
-import { attemptsApi, errorMessage, isApiError, trialsApi } from '@/api';
+import { attemptsApi, errorMessage, isApiError } from '@/api';
 import { CommandBatcher, isTransient, type LinkState, type ResyncReason } from '@/drive/batcher';
 import { ControlClock } from '@/drive/control-clock';
 import { markerName, obstacleName } from '@/drive/map-style';
@@ -164,7 +164,8 @@ export function useDriveSession(attemptId: string) {
     failure.value = null;
     try {
       const view = await attemptsApi.get(attemptId);
-      const { trial: t } = await trialsApi.get(view.attempt.trialId);
+      // The trial as this attempt drives it: on a fleet profile, its robot and alphas.
+      const t = view.trial;
       if (disposed) return;
       attempt.value = view.attempt;
       trial.value = t;
