@@ -119,6 +119,16 @@ describe('fleet calibration', () => {
     expect(await page.getByTestId('corrected-left').innerText()).toMatch(/^\d+\.\d{2} mm$/);
     expect(await page.getByTestId('corrected-wheelbase').innerText()).toMatch(/^\d+\.\d mm$/);
 
+    // Our own wheelbase: the runs are read again with it, and the corrected wheelbase follows (Eb × 520 mm).
+    const ebText = await page.getByTestId('umbmark-eb').innerText();
+    await page.getByLabel("Our robots' geometry differs from the nominal values").check();
+    await page.getByLabel('Wheelbase (mm)').fill('520');
+    await page.getByLabel('Wheelbase (mm)').blur();
+    await expect.poll(() => page.getByTestId('umbmark-panel').innerText(), { timeout: 10_000 }).toContain('wheelbase 520 mm');
+    const eb = Number((await page.getByTestId('umbmark-eb').innerText()).split(' ')[0]);
+    expect(eb).toBeCloseTo(Number(ebText.split(' ')[0]), 5);
+    expect(await page.getByTestId('corrected-wheelbase').innerText()).toBe(`${(eb * 520).toFixed(1)} mm`);
+
     // The sample poses: a1..a4 with intervals, and three residual plots.
     await page.getByLabel('Poses file (CSV)').setInputFiles({ name: 'sample-poses.csv', mimeType: 'text/csv', buffer: await sample('poses') });
     await page.getByTestId('alpha-panel').waitFor({ timeout: 60_000 });
@@ -209,6 +219,15 @@ describe('fleet calibration', () => {
     await waitForConsole(page);
     expect(await page.getByTestId('drift-profile-label').innerText()).toBe(`Fleet profile: ${profileName}`);
     await shot(page, 'fleet-console', false);
+
+    // Submitted, the drive's report names the fleet profile too.
+    const attemptId = new URL(page.url()).pathname.split('/').pop()!;
+    await page.getByRole('button', { name: 'Submit the drive' }).click();
+    await page.getByRole('alertdialog').getByRole('button', { name: 'Submit the drive' }).click();
+    await page.goto(url(`/attempts/${attemptId}/report`));
+    await page.locator('[data-testid="attempt-report"][data-phase="ready"]').waitFor({ timeout: 30_000 });
+    expect(await page.getByTestId('drift-profile-label').innerText()).toBe(`Fleet profile: ${profileName}`);
+    await shot(page, 'fleet-report', false);
 
     // An ordinary practice drive says it runs on the standard profile.
     await page.goto(url('/operator/trials'));
