@@ -9,7 +9,7 @@ import { createHash, randomUUID } from 'node:crypto';
 import { readFile } from 'node:fs/promises';
 import path from 'node:path';
 import type { Transaction } from 'sequelize';
-import { calibrateUmbmarkCsv, pairedPosesFromCsvRecords, type AlphaFitReport } from '../../shared/calibration';
+import { calibrateUmbmarkCsv, pairedPosesFromCsvRecords, type AlphaFitReport, type NoiseComponent } from '../../shared/calibration';
 import {
   FLEET_BOOTSTRAP_RESAMPLES,
   FLEET_POSES_MAX_BYTES,
@@ -92,9 +92,15 @@ export function thinEvenly<T>(items: readonly T[], max: number): T[] {
   return Array.from({ length: max }, (_, i) => items[Math.floor((i * items.length) / max)]);
 }
 
-/** The alpha-fit report as the API shows and stores it: residuals thinned, with their total. */
+/**
+ * The alpha-fit report as the API shows and stores it: the residuals of each noise term thinned
+ * on their own (so each plot keeps its share, over all the steps), with the total count.
+ */
 export function alphaFitView(report: AlphaFitReport): AlphaFitView {
-  return { ...report, residuals: thinEvenly(report.residuals, FLEET_RESIDUALS_MAX), residualsTotal: report.residuals.length };
+  const components: NoiseComponent[] = ['rot1', 'trans', 'rot2'];
+  const perComponent = Math.floor(FLEET_RESIDUALS_MAX / components.length);
+  const residuals = components.flatMap((c) => thinEvenly(report.residuals.filter((r) => r.component === c), perComponent));
+  return { ...report, residuals, residualsTotal: report.residuals.length };
 }
 
 /**

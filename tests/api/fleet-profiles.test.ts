@@ -201,8 +201,15 @@ describe('fleet calibration previews', () => {
     expect(fit.alphas).toEqual(direct.alphas);
     expect(fit.bootstrap.intervals).toEqual(direct.bootstrap.intervals);
     expect(fit.residualsTotal).toBe(direct.residuals.length);
-    expect(fit.residuals.length).toBe(Math.min(FLEET_RESIDUALS_MAX, direct.residuals.length));
+    expect(fit.residuals.length).toBeLessThanOrEqual(FLEET_RESIDUALS_MAX);
     expect(fit.residuals[0]).toEqual(direct.residuals[0]);
+    // Every noise term keeps its share of the plot, over all the steps.
+    for (const component of ['rot1', 'trans', 'rot2'] as const) {
+      const shown = fit.residuals.filter((r: { component: string }) => r.component === component);
+      const all = direct.residuals.filter((r) => r.component === component);
+      expect(shown.length, component).toBe(Math.min(all.length, FLEET_RESIDUALS_MAX / 3));
+      expect(shown.at(-1).step, component).toBeGreaterThan(all.at(-1)!.step * 0.99);
+    }
     // The invented truth of the simulated sample lies inside every 95 % interval.
     const truth = [0.014, 4e-5, 0.0032, 1.3e-4];
     truth.forEach((a, i) => {
