@@ -3,7 +3,7 @@ import { z } from 'zod';
 import { guard } from '../auth/guard';
 import type { AppContext } from '../context';
 import { parseParams } from '../http/validate';
-import { listLevels, listTrials, publicTrial } from '../services/trials';
+import { listLevels, listRobots, listTrials, publicTrial } from '../services/trials';
 
 const trialParams = z.strictObject({ id: z.string().min(1).max(64) });
 
@@ -18,6 +18,10 @@ export function trialRoutes({ content }: AppContext) {
 
   router.get('/trials', signedIn, (_req, res) => {
     res.json({ items: listTrials(content) });
+  });
+
+  router.get('/robots', signedIn, (_req, res) => {
+    res.json({ items: listRobots(content) });
   });
 
   router.get('/trials/:id', signedIn, (req, res) => {

@@ -246,5 +246,20 @@ export type Level = z.infer<typeof levelSchema>;
 export type PublicRobot = Omit<Robot, 'hiddenErrors'>;
 export type PublicTrial = Omit<Trial, 'hiddenErrors'> & { robot: PublicRobot; surfaces: Surface[] };
 
+/** A trial as GET /api/trials lists it. */
+export interface TrialSummary {
+  id: string;
+  title: string;
+  summary: string;
+  robotId: string;
+  robotName: string;
+  /** Seconds. */
+  timeLimit: number;
+  levelIds: string[];
+}
+
+/** A content robot as GET /api/robots lists it: its nominal geometry, never its hidden errors. */
+export type RobotSummary = Pick<Robot, 'id' | 'name' | 'description' | 'wheelRadius' | 'wheelbase' | 'ticksPerRevolution'>;
+
 /** A level as the client sees it, with the titles of its trials. */
 export type PublicLevel = Level & { trials: { id: string; title: string }[] };

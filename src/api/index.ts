@@ -29,6 +29,8 @@ import type {
   PasswordResetRequest,
   PublicLevel,
   PublicTrial,
+  RobotSummary,
+  TrialSummary,
   PublicUser,
   ReviewInfo,
   ReviewQueueItem,
@@ -43,6 +45,8 @@ import type {
   USER_SORT_FIELDS,
   VerdictInput,
 } from '@shared/schemas';
+
+export type { RobotSummary, TrialSummary };
 import type { Command } from '@shared/sim';
 
 /** Codes the client itself gives to failures that never reached a JSON answer. */
@@ -422,23 +426,10 @@ export const mailApi = {
   get: (id: number) => request<{ message: CapturedMail }>('GET', `/api/mail-messages/${encodeURIComponent(id)}`),
 };
 
-/**
- * A trial as GET /api/trials lists it (the same shape as TrialSummary in
- * server/services/trials.ts, which the client cannot import).
- */
-export interface TrialSummary {
-  id: string;
-  title: string;
-  summary: string;
-  robotName: string;
-  /** Seconds. */
-  timeLimit: number;
-  levelIds: string[];
-}
-
 export const trialsApi = {
   levels: (signal?: AbortSignal) => request<{ items: PublicLevel[] }>('GET', '/api/levels', { signal }),
   list: (signal?: AbortSignal) => request<{ items: TrialSummary[] }>('GET', '/api/trials', { signal }),
+  robots: (signal?: AbortSignal) => request<{ items: RobotSummary[] }>('GET', '/api/robots', { signal }),
   get: (id: string, signal?: AbortSignal) =>
     request<{ trial: PublicTrial }>('GET', `/api/trials/${encodeURIComponent(id)}`, { signal }),
 };

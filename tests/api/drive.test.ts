@@ -33,6 +33,17 @@ describe('trials and levels', () => {
     await agent.get('/api/trials/no-such-trial').expect(404);
   });
 
+  it("lists the robots with their nominal geometry only, and names each trial's robot", async () => {
+    const agent = await signedInAgent(t.app, 'employer');
+    const robots = await agent.get('/api/robots').expect(200);
+    expect(robots.body.items.map((r: { id: string }) => r.id).sort()).toEqual([...content.robots.keys()].sort());
+    const tugger = robots.body.items.find((r: { id: string }) => r.id === 'aisle-tugger');
+    expect(tugger).toEqual({ id: 'aisle-tugger', name: 'Aisle tugger (demo)', description: expect.any(String), wheelRadius: 0.1, wheelbase: 0.5, ticksPerRevolution: 1024 });
+    expect(robots.text).not.toContain('hiddenErrors');
+    const trials = await agent.get('/api/trials').expect(200);
+    for (const item of trials.body.items) expect(item.robotId).toBe(content.trials.get(item.id)!.robotId);
+  });
+
   it('needs a signed-in user', async () => {
     await request(t.app).get('/api/trials').expect(401);
   });

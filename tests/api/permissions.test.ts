@@ -40,6 +40,7 @@ const MATRIX: [string, string, Record<Caller, Outcome>][] = [
   ['GET /api/mail-messages/:id', '/api/mail-messages/999999', only('admin')],
   ['GET /api/levels', '/api/levels', PUBLIC],
   ['GET /api/trials', '/api/trials', SIGNED_IN],
+  ['GET /api/robots', '/api/robots', SIGNED_IN],
   ['GET /api/trials/:id', '/api/trials/long-aisle-run', SIGNED_IN],
   ['POST /api/attempts', '/api/attempts', only('operator')],
   ['GET /api/attempts', '/api/attempts', only('operator', 'employer', 'otherOrgEmployer', 'assessor', 'admin')],

@@ -27,11 +27,9 @@ export const EMPTY_ROBOT_CHOICE: RobotChoice = { robotId: '', custom: false, whe
 
 export type RobotField = 'robotId' | 'wheelRadiusMm' | 'wheelbaseMm' | 'ticksPerRevolution';
 
-/** The content robots, one each, by name, from the trials that use them. */
-export function uniqueRobots(robots: readonly RobotGeometry[]): RobotGeometry[] {
-  const byId = new Map<string, RobotGeometry>();
-  for (const r of robots) if (!byId.has(r.id)) byId.set(r.id, r);
-  return [...byId.values()].sort((a, b) => a.name.localeCompare(b.name));
+/** The content robots by name. */
+export function robotsByName(robots: readonly RobotGeometry[]): RobotGeometry[] {
+  return [...robots].sort((a, b) => a.name.localeCompare(b.name));
 }
 
 const FIELD_OF_PATH: Record<string, RobotField> = {

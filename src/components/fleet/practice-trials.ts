@@ -6,8 +6,8 @@ import type { TrialSummary } from '@/api';
  * The trials a profile can run on: those driven by the profile's robot model (a fleet profile
  * replaces the drift of one robot model), by title.
  */
-export function trialsForRobot(trials: readonly TrialSummary[], robotName: string): TrialSummary[] {
-  return trials.filter((t) => t.robotName === robotName).sort((a, b) => a.title.localeCompare(b.title));
+export function trialsForRobot(trials: readonly TrialSummary[], robotId: string): TrialSummary[] {
+  return trials.filter((t) => t.robotId === robotId).sort((a, b) => a.title.localeCompare(b.title));
 }
 
 /** Whether two lists hold the same trial ids, in any order. */

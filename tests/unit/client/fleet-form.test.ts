@@ -9,14 +9,13 @@ import {
   robotChoiceErrors,
   robotFormFields,
   rowProblemsOf,
-  uniqueRobots,
+  robotsByName,
   uploadFailure,
   uploadsError,
   type RobotChoice,
   type RobotGeometry,
 } from '@/components/fleet/fleet-form';
 import { groupByProfile, sameTrialIds, trialsForRobot } from '@/components/fleet/practice-trials';
-import { oneTrialPerRobot } from '@/components/fleet/use-content-robots';
 import { CSV_COLUMNS } from '@/components/fleet/csv-columns';
 
 const TUGGER: RobotGeometry = { id: 'aisle-tugger', name: 'Aisle tugger (demo)', wheelRadius: 0.1, wheelbase: 0.55, ticksPerRevolution: 4096 };
@@ -52,11 +51,9 @@ describe('the robot part of a new fleet profile', () => {
     expect(effectiveGeometry(undefined, choice({}))).toBeNull();
   });
 
-  it('lists each content robot once, by name, from one trial per robot', () => {
+  it('lists the content robots by name', () => {
     const rover: RobotGeometry = { ...TUGGER, id: 'inspection-rover', name: 'Inspection rover (demo)' };
-    expect(uniqueRobots([rover, TUGGER, { ...TUGGER }]).map((r) => r.id)).toEqual(['aisle-tugger', 'inspection-rover']);
-    const trial = (id: string, robotName: string) => ({ id, title: id, summary: '', robotName, timeLimit: 60, levelIds: [] });
-    expect(oneTrialPerRobot([trial('a', 'X'), trial('b', 'Y'), trial('c', 'X')]).map((t) => t.id)).toEqual(['a', 'b']);
+    expect(robotsByName([rover, TUGGER]).map((r) => r.id)).toEqual(['aisle-tugger', 'inspection-rover']);
   });
 });
 
@@ -117,11 +114,11 @@ describe('the rest of the form', () => {
 });
 
 describe('practice trials on a fleet profile', () => {
-  const trial = (id: string, title: string, robotName: string): TrialSummary => ({ id, title, summary: '', robotName, timeLimit: 60, levelIds: [] });
+  const trial = (id: string, title: string, robotId: string): TrialSummary => ({ id, title, summary: '', robotId, robotName: robotId, timeLimit: 60, levelIds: [] });
 
   it("offers only the trials of the profile's robot model, by title", () => {
-    const list = [trial('a', 'Zebra', 'Rover'), trial('b', 'Beta', 'Tugger'), trial('c', 'Alpha', 'Rover'), trial('d', 'Alpha', 'Tugger')];
-    expect(trialsForRobot(list, 'Tugger').map((t) => t.id)).toEqual(['d', 'b']);
+    const list = [trial('a', 'Zebra', 'rover'), trial('b', 'Beta', 'tugger'), trial('c', 'Alpha', 'rover'), trial('d', 'Alpha', 'tugger')];
+    expect(trialsForRobot(list, 'tugger').map((t) => t.id)).toEqual(['d', 'b']);
   });
 
   it('compares choices in any order', () => {
