@@ -12,19 +12,8 @@
  */
 import { writeFileSync } from 'node:fs';
 import path from 'node:path';
-import {
-  createRng,
-  integrateWheelTicks,
-  normalizeAngle,
-  sampleOdometry,
-  wheelTicksFromCommand,
-  type DiffDriveRobot,
-  type OdometryAlphas,
-  type Pose,
-  type Rng,
-  type SystematicErrors,
-  type WheelTicks,
-} from '../../shared/motion';
+import { SIMULATION_PERIOD, SimulatedRobot, simulatedSquareRun } from '../../shared/calibration/simulated-runs';
+import { createRng, type DiffDriveRobot, type OdometryAlphas, type Rng, type SystematicErrors } from '../../shared/motion';
 import { SAMPLE_DIR, SAMPLE_FILES } from '../services/fleet-profiles';
 
 /** The invented robot: the demo aisle tugger's nominal geometry (content/robots/aisle-tugger.json). */
@@ -33,41 +22,14 @@ export const SAMPLE_ROBOT: DiffDriveRobot = { wheelRadius: 0.1, wheelbase: 0.5, 
 export const SAMPLE_ERRORS: SystematicErrors = { ed: 1.0025, eb: 1.012 };
 /** Its invented true random drift, a1..a4 (what the paired-pose sample should recover). */
 export const SAMPLE_ALPHAS: OdometryAlphas = [0.014, 4e-5, 0.0032, 1.3e-4];
-const DT = 0.1;
+const DT = SIMULATION_PERIOD;
 const SEED = 'driftproof-calibration-sample-1';
-
-class SimulatedRobot {
-  odom: Pose = { x: 0, y: 0, theta: 0 };
-  truth: Pose = { x: 0, y: 0, theta: 0 };
-  private rem: WheelTicks = { left: 0, right: 0 };
-
-  constructor(
-    private readonly actual: SystematicErrors,
-    private readonly alphas: OdometryAlphas,
-    private readonly rng: Rng,
-  ) {}
-
-  step(v: number, w: number): void {
-    const t = wheelTicksFromCommand(v, w, DT, SAMPLE_ROBOT, this.rem);
-    this.rem = t.remainder;
-    this.odom = integrateWheelTicks(this.odom, t.ticks, SAMPLE_ROBOT, { ed: 1, eb: 1 });
-    const systematic = integrateWheelTicks(this.truth, t.ticks, SAMPLE_ROBOT, this.actual);
-    this.truth = sampleOdometry(this.truth, this.truth, systematic, this.alphas, this.rng);
-  }
-}
 
 /** One closed-loop run of the 4 m bidirectional square (Borenstein & Feng 1996), measured as actual minus odometry. */
 function squareRun(direction: 'cw' | 'ccw', rng: Rng): { x: number; y: number; heading: number } {
   // The square runs are slow and careful: a tenth of the drive's random drift.
-  const sim = new SimulatedRobot(SAMPLE_ERRORS, SAMPLE_ALPHAS.map((a) => a / 10) as unknown as OdometryAlphas, rng);
-  const turn = direction === 'ccw' ? 1 : -1;
-  for (let leg = 0; leg < 4; leg++) {
-    const start = sim.odom;
-    for (let d = 0; d < 4 - 1e-9; d = Math.hypot(sim.odom.x - start.x, sim.odom.y - start.y)) sim.step(Math.min(0.5, (4 - d) / DT), 0);
-    const heading = sim.odom.theta;
-    for (let a = 0; a < Math.PI / 2 - 1e-9; a = Math.abs(normalizeAngle(sim.odom.theta - heading))) sim.step(0, turn * Math.min(0.5, (Math.PI / 2 - a) / DT));
-  }
-  return { x: sim.truth.x - sim.odom.x, y: sim.truth.y - sim.odom.y, heading: normalizeAngle(sim.truth.theta - sim.odom.theta) };
+  const run = simulatedSquareRun(direction, SAMPLE_ROBOT, SAMPLE_ERRORS, SAMPLE_ALPHAS.map((a) => a / 10) as unknown as OdometryAlphas, rng);
+  return { x: run.x, y: run.y, heading: run.heading! };
 }
 
 /** A decimal with `digits` places, never "-0.000". */
@@ -96,7 +58,7 @@ export function umbmarkSample(): string {
  */
 export function posesSample(steps = 1500): string {
   const rng = createRng(`${SEED}-poses`);
-  const sim = new SimulatedRobot({ ed: 1, eb: 1 }, SAMPLE_ALPHAS, rng);
+  const sim = new SimulatedRobot(SAMPLE_ROBOT, { ed: 1, eb: 1 }, SAMPLE_ALPHAS, rng);
   const f = (v: number) => fixed(v, 6);
   const row = (t: number) => `${f(sim.odom.x)},${f(sim.odom.y)},${f(sim.odom.theta)},${f(sim.truth.x)},${f(sim.truth.y)},${f(sim.truth.theta)},${(t * DT).toFixed(1)}`;
   const lines = ['odom_x,odom_y,odom_theta,ref_x,ref_y,ref_theta,time', row(0)];
