@@ -58,6 +58,30 @@ export async function startStripeStandin(options: { port: number; webhookUrl: st
   app.use(express.urlencoded({ extended: true, limit: '100kb' }));
   let baseUrl = '';
 
+  // Idempotent requests, as the hosted service keeps them: a POST carrying an Idempotency-Key that
+  // was seen before gets the first answer again, or an error when its parameters differ.
+  const idempotent = new Map<string, { request: string; status: number; body: unknown }>();
+  app.post('/v1/{*path}', (req, res, next) => {
+    const key = req.get('idempotency-key');
+    if (!key) return next();
+    const request = `${req.path} ${JSON.stringify(req.body)}`;
+    const seen = idempotent.get(key);
+    if (seen && seen.request !== request) {
+      res.status(400).json({ error: { type: 'idempotency_error', message: 'Keys for idempotent requests can only be used with the same parameters they were first used with.' } });
+      return;
+    }
+    if (seen) {
+      res.set('idempotent-replayed', 'true').status(seen.status).json(seen.body);
+      return;
+    }
+    const json = res.json.bind(res);
+    res.json = (body: unknown) => {
+      idempotent.set(key, { request, status: res.statusCode, body });
+      return json(body);
+    };
+    next();
+  });
+
   async function deliver(type: string, object: unknown) {
     const event = { id: newId('evt'), object: 'event', api_version: Stripe.API_VERSION, created: now(), type, livemode: false, pending_webhooks: 1, data: { object } };
     events.set(event.id, event);
