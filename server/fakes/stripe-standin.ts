@@ -76,7 +76,8 @@ export async function startStripeStandin(options: { port: number; webhookUrl: st
     }
     const json = res.json.bind(res);
     res.json = (body: unknown) => {
-      idempotent.set(key, { request, status: res.statusCode, body });
+      // Like the hosted service: a request refused for its parameters leaves no result to replay.
+      if (res.statusCode < 400 || res.statusCode >= 500) idempotent.set(key, { request, status: res.statusCode, body });
       return json(body);
     };
     next();

@@ -4,7 +4,7 @@
  * of unused seats by the admin.
  */
 import { randomUUID } from 'node:crypto';
-import type Stripe from 'stripe';
+import Stripe from 'stripe';
 import { unitPriceFor, type SeatOrderView } from '../../shared/schemas';
 import type { AppContext } from '../context';
 import { Organization, SeatLedgerEntry, SeatOrder, User } from '../db/models';
@@ -100,6 +100,27 @@ export async function handlePaymentWebhook(ctx: AppContext, rawBody: Buffer, sig
   });
 }
 
+/**
+ * Asks the payment service for a refund. The idempotency key is the order and how many of its seats
+ * were refunded before, so a retry after a lost commit gets the same refund back (paid once), and
+ * a retry for another number of seats is refused by the service instead of paid a second time.
+ */
+async function sendRefund(ctx: AppContext, order: SeatOrder, quantity: number): Promise<void> {
+  try {
+    await ctx.stripe.refunds.create({ payment_intent: order.paymentIntentId!, amount: quantity * order.unitAmount }, { idempotencyKey: `refund-${order.id}-${order.refundedQuantity}` });
+  } catch (error) {
+    if (error instanceof Stripe.errors.StripeIdempotencyError) {
+      throw new HttpError(
+        409,
+        'refund_pending',
+        'A refund of this order for another number of seats reached the payment service but was not recorded here. Send that refund again to record it; nothing else was refunded.',
+      );
+    }
+    console.error('refund:', (error as Error).message);
+    throw new HttpError(502, 'payment_unavailable', 'The payment service did not confirm the refund, so nothing was recorded. Send the same refund again: it is paid once.');
+  }
+}
+
 /** Refunds unused seats of a paid order through the SDK; the order and the ledger follow. */
 export async function refundSeats(ctx: AppContext, actor: Express.User, orderId: string, quantity: number): Promise<SeatOrderView> {
   return ctx.sequelize.transaction(async (transaction) => {
@@ -113,7 +134,7 @@ export async function refundSeats(ctx: AppContext, actor: Express.User, orderId:
     if (quantity > refundable) {
       throw new HttpError(409, 'seats_in_use', `At most ${refundable} seat${refundable === 1 ? '' : 's'} of this order can be refunded: the rest are used or already refunded.`);
     }
-    await ctx.stripe.refunds.create({ payment_intent: order.paymentIntentId, amount: quantity * order.unitAmount }, { idempotencyKey: `refund-${order.id}-${order.refundedQuantity}-${quantity}` });
+    await sendRefund(ctx, order, quantity);
     const refundedQuantity = order.refundedQuantity + quantity;
     await order.update({ refundedQuantity, status: refundedQuantity === order.quantity ? 'refunded' : 'partially_refunded' }, { transaction });
     await SeatLedgerEntry.create({ organizationId: order.organizationId, delta: -quantity, kind: 'refund', orderId: order.id, attemptId: null, actorId: actor.id }, { transaction });
