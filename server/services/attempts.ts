@@ -172,7 +172,9 @@ async function changeDrive<T extends object>(
       return outcome;
     });
   } catch (error) {
-    ctx.drives.delete(attemptId);
+    // A refusal (HttpError, DriveError) comes before the drive is changed, so the held drive is
+    // still that of the log; anything else (the database) may have left it ahead of the log.
+    if (!(error instanceof HttpError || error instanceof DriveError)) ctx.drives.delete(attemptId);
     throw asHttp(error);
   }
 }
@@ -285,9 +287,12 @@ export function canSee(actor: Actor, attempt: Attempt): boolean {
 }
 
 export async function viewAttempt(ctx: AppContext, actor: Actor, attemptId: string): Promise<AttemptView> {
-  const attempt = await Attempt.findByPk(attemptId, { include: summaryIncludes() });
-  if (!attempt || !canSee(actor, attempt)) throw notFound('That attempt');
-  const sim = await ctx.drives.exclusive(attemptId, () => driveOf(ctx, attempt));
+  // The row is read in the attempt's turn, so it is never behind the drive this process holds.
+  const { attempt, sim } = await ctx.drives.exclusive(attemptId, async () => {
+    const attempt = await Attempt.findByPk(attemptId, { include: summaryIncludes() });
+    if (!attempt || !canSee(actor, attempt)) throw notFound('That attempt');
+    return { attempt, sim: await driveOf(ctx, attempt) };
+  });
   const userName = (attempt as Attempt & { user?: User }).user?.name ?? '';
   const view: AttemptView = {
     attempt: summary(attempt, ctx, userName),

@@ -306,6 +306,18 @@ describe('replay', () => {
     expect(done.result!.trace).toEqual(sim.trace);
   });
 
+  it('a refused batch (a gap) keeps the drive the process holds; no replay of the log', async () => {
+    const agent = await signedInAgent(t.app, 'operator1');
+    const start = await startDrive(agent, 'long-aisle-run');
+    await agent.post(`/api/attempts/${start.attempt.id}/steps`).send({ fromSeq: 0, commands: [{ v: 0.5, w: 0 }] }).expect(200);
+    const held = t.ctx.drives.get(start.attempt.id)!.sim;
+    const gap = await agent.post(`/api/attempts/${start.attempt.id}/steps`).send({ fromSeq: 5, commands: [{ v: 0.5, w: 0 }] }).expect(409);
+    expect(gap.body.error.code).toBe('seq_conflict');
+    expect(t.ctx.drives.get(start.attempt.id)!.sim).toBe(held);
+    await agent.post(`/api/attempts/${start.attempt.id}/steps`).send({ fromSeq: 1, commands: [{ v: 0.5, w: 0 }] }).expect(200);
+    expect(t.ctx.drives.get(start.attempt.id)!.sim).toBe(held);
+  });
+
   it('the same batch sent five times at once is applied once, and all five get its answer', async () => {
     const agent = await signedInAgent(t.app, 'operator1');
     const start = await startDrive(agent, 'long-aisle-run');
