@@ -296,6 +296,11 @@ export async function archiveFleetProfile(ctx: AppContext, organizationId: numbe
   });
 }
 
+/** Whether a trial exists and is driven with the robot a profile describes. */
+function drivesProfileRobot(content: Content, trialId: string, profile: Pick<FleetProfile, 'robot'>): boolean {
+  return content.trials.get(trialId)?.robotId === profile.robot.baseRobotId;
+}
+
 /**
  * The fleet profile a practice drive may start on: one of the operator's organization, active,
  * with this trial assigned. Locked (shared) until the attempt is stored, so an archive waits.
@@ -304,8 +309,9 @@ export async function practiceProfileFor(ctx: AppContext, actor: Actor, profileI
   const profile = await lockProfile(actor.organizationId, profileId, transaction, 'share');
   if (profile.status !== 'active') throw archivedError(profile);
   const assigned = await PracticeTrialRow.findOne({ where: { profileId, trialId }, transaction });
-  if (!assigned) {
-    const title = ctx.content.trials.get(trialId)?.title ?? trialId;
+  const title = ctx.content.trials.get(trialId)?.title ?? trialId;
+  // The robot of the trial is checked again here: the content may have changed since the assignment.
+  if (!assigned || !drivesProfileRobot(ctx.content, trialId, profile)) {
     throw new HttpError(409, 'not_a_fleet_practice_trial', `"${title}" is not a practice trial of the fleet profile "${profile.name}".`);
   }
   return profile;
@@ -323,7 +329,7 @@ export async function fleetPracticeFor(ctx: AppContext, actor: Actor): Promise<F
   return profiles.flatMap((profile) =>
     trials
       .get(profile.id)!
-      .filter((trialId) => ctx.content.trials.has(trialId))
+      .filter((trialId) => drivesProfileRobot(ctx.content, trialId, profile))
       .map((trialId) => ({
         trialId,
         trialTitle: ctx.content.trials.get(trialId)!.title,

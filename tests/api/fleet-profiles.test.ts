@@ -23,7 +23,7 @@ import {
 } from '../../shared/schemas';
 import { DriveSim } from '../../shared/sim';
 import { hashPassword } from '../../server/auth/passwords';
-import { Attempt, Organization, User } from '../../server/db/models';
+import { Attempt, FleetPracticeTrial as FleetPracticeTrialRow, Organization, User } from '../../server/db/models';
 import { startWorkers } from '../../server/jobs/workers';
 import { createTestApp, signedInAgent } from '../support/api';
 import { shippedContent } from '../support/content';
@@ -399,6 +399,19 @@ describe('fleet profiles', () => {
     expect(unassigned.body.error.message).toMatch(/not a practice trial of the fleet profile "Tugger 3, hall A"/);
     await operator.post('/api/attempts').send({ trialId: 'long-aisle-run', mode: 'practice', fleetProfileId: '00000000-0000-4000-8000-000000000000' }).expect(404);
     await operator.post('/api/attempts').send({ trialId: 'long-aisle-run', mode: 'practice', fleetProfileId: 'not-a-uuid' }).expect(400);
+  });
+
+  it("a practice trial whose robot is no longer the profile's (the content changed) is neither listed nor started", async () => {
+    // As if the content had moved "Dock door 3" to the aisle tugger, the employer assigned it, and it moved back.
+    const row = await FleetPracticeTrialRow.create({ profileId: profile.id, trialId: 'dock-door-three', assignedBy: (await User.findOne({ where: { email: 'employer@demo.driftproof.test' } }))!.id });
+    try {
+      const items = (await operator.get('/api/fleet-practice').expect(200)).body.items as FleetPracticeTrial[];
+      expect(items.some((i) => i.trialId === 'dock-door-three')).toBe(false);
+      const refused = await operator.post('/api/attempts').send({ trialId: 'dock-door-three', mode: 'practice', fleetProfileId: profile.id }).expect(409);
+      expect(refused.body.error.code).toBe('not_a_fleet_practice_trial');
+    } finally {
+      await row.destroy();
+    }
   });
 
   it('an archived profile keeps its drives but starts no new ones', async () => {
