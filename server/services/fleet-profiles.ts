@@ -11,6 +11,7 @@ import path from 'node:path';
 import type { Transaction } from 'sequelize';
 import { calibrateUmbmarkCsv, pairedPosesFromCsvRecords, type AlphaFitReport, type NoiseComponent } from '../../shared/calibration';
 import {
+  FLEET_ALPHA_MAX,
   FLEET_BOOTSTRAP_RESAMPLES,
   FLEET_POSES_MAX_BYTES,
   FLEET_POSES_MAX_ROWS,
@@ -121,7 +122,7 @@ export async function alphaFitFromFile(file: Buffer): Promise<AlphaFitView> {
 /**
  * The effective drift profile: alphas from the alpha fit (else the base robot's assumed ones),
  * Ed and Eb from UMBmark (else the base robot's real ones). Ed and Eb outside the ranges every
- * robot must keep (systematicErrorsSchema) are refused with a 400.
+ * robot must keep (systematicErrorsSchema), or an alpha above FLEET_ALPHA_MAX, are refused with a 400.
  */
 export function effectiveDriftProfile(base: Robot, umbmark: UmbmarkView | null, alphaFit: AlphaFitView | null): DriftProfile {
   const ed = umbmark ? umbmark.report.ed : base.hiddenErrors.ed;
@@ -130,8 +131,14 @@ export function effectiveDriftProfile(base: Robot, umbmark: UmbmarkView | null, 
     const message = `The runs give Ed = ${ed.toFixed(4)} and Eb = ${eb.toFixed(4)}; a fleet profile needs Ed between 0.9 and 1.1 and Eb between 0.8 and 1.2. Check that the errors are in metres, measured as actual minus odometry, with the right direction on each run.`;
     throw new HttpError(400, 'drift_out_of_range', message, { runs: message });
   }
+  if (alphaFit && alphaFit.alphas.some((a) => a > FLEET_ALPHA_MAX)) {
+    const list = alphaFit.alphas.map((a, i) => `a${i + 1} = ${a.toPrecision(3)}`).join(', ');
+    const message = `The poses give ${list}; a fleet profile needs each at most ${FLEET_ALPHA_MAX}, where the drift is already as large as the motion itself. Check that both tracks are in metres and radians, in the same frame, and sampled at the same moments.`;
+    throw new HttpError(400, 'drift_out_of_range', message, { poses: message });
+  }
   return { alphas: alphaFit ? [...alphaFit.alphas] : [...base.assumedProfile.alphas], ed, eb };
 }
+
 
 /** A file name safe to store and to send back in Content-Disposition: no folders, no control or odd characters. */
 export function safeFileName(original: string, kind: FleetFileKind): string {

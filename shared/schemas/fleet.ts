@@ -15,6 +15,12 @@ export const FLEET_POSES_MAX_BYTES = 5 * 1024 * 1024;
 /** Most pose rows a paired-pose file may have (below its header). */
 export const FLEET_POSES_MAX_ROWS = 20_000;
 /** Most standardised residuals an alpha-fit view carries (thinned evenly). */
+/**
+ * The largest alpha a fleet profile keeps: at a1 = 1 rad²/rad² the rotation noise's standard
+ * deviation equals the rotation, at a3 = 1 m²/m² the distance noise equals the distance (likewise
+ * a2, a4 per metre and radian). Beyond that the odometry says nothing and the file is wrong.
+ */
+export const FLEET_ALPHA_MAX = 1;
 export const FLEET_RESIDUALS_MAX = 3_000;
 /** Most row problems a `calibration_rows` error lists. */
 export const FLEET_MAX_PROBLEMS = 200;

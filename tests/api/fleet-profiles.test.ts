@@ -296,6 +296,16 @@ describe('fleet profiles', () => {
     const wild = await saveProfile({ runs: [['direction,x_error,y_error', ...runLines([-2.5, 0], [-2.5, 0])].join('\n'), 'r.csv'] }).expect(400);
     expect(wild.body.error.code).toBe('drift_out_of_range');
     expect(wild.body.error.message).toMatch(/Eb = 1\.2\d+.*between 0\.8 and 1\.2/);
+    // A reference track in other units (centimetres against metres): the fitted drift dwarfs the motion.
+    const header = 'odom_x,odom_y,odom_theta,ref_x,ref_y,ref_theta';
+    const rows = Array.from({ length: 60 }, (_, i) => {
+      const x = 0.2 * i;
+      const y = 0.05 * Math.sin(i);
+      return [x, y, 0.1 * Math.sin(i / 3), 100 * x, 100 * y, 0.1 * Math.sin(i / 3)].map((v) => v.toFixed(4)).join(',');
+    });
+    const units = await saveProfile({ poses: [[header, ...rows].join('\n'), 'p.csv'] }).expect(400);
+    expect(units.body.error.code).toBe('drift_out_of_range');
+    expect(units.body.error.fields.poses).toMatch(/at most 1,/);
     expect(await counts()).toEqual(before);
   });
 
