@@ -5,7 +5,9 @@
  * 1. Drives: LOAD_OPERATORS simulated operators (default 100) each drive a practice attempt,
  *    commanding at 10 Hz and sending a batch of BATCH commands (default 5) every BATCH/10 s, for
  *    LOAD_SECONDS (default 60), while LOAD_VERIFY_RPS public verification look-ups (default 20/s) run.
- *    Operators are spread over the web processes round-robin, as a balancer would.
+ *    Operators are spread over the web processes round-robin and stay with theirs, as a balancer
+ *    with sticky sessions does; LOAD_BALANCE=round-robin sends each batch to the next process
+ *    instead, so most batches land on a process that does not hold the drive and rebuild it.
  * 2. Short autocannon runs on read endpoints.
  * Prints throughput, p50/p95/p99 latency and errors; never fails on speed.
  */
@@ -27,6 +29,7 @@ const SECONDS = Number(process.env.LOAD_SECONDS ?? 60);
 const BATCH = Number(process.env.BATCH ?? 5);
 const VERIFY_RPS = Number(process.env.LOAD_VERIFY_RPS ?? 20);
 const PROCESSES = Number(process.env.LOAD_PROCESSES ?? 1);
+const ROUND_ROBIN = process.env.LOAD_BALANCE === 'round-robin';
 const TARGET_P95_MS = 50;
 
 const config = loadConfig(testEnv({ JOB_WORKERS: '0' }));
@@ -111,7 +114,8 @@ async function operator(cookie: string, index: number, at: string = baseFor(inde
     turn = -turn; // weave gently so drives last without reaching a call point too soon
     const commands = Array.from({ length: BATCH }, () => ({ v: 0.4, w: turn }));
     const t0 = performance.now();
-    const res = await fetch(`${at}/api/attempts/${attempt.id}/steps`, { method: 'POST', headers, body: JSON.stringify({ fromSeq: seq, commands }) });
+    const target = ROUND_ROBIN ? baseFor(batches + index) : at;
+    const res = await fetch(`${target}/api/attempts/${attempt.id}/steps`, { method: 'POST', headers, body: JSON.stringify({ fromSeq: seq, commands }) });
     const body = (await res.json()) as { seq?: number; error?: { code: string } };
     latencies.push(performance.now() - t0);
     batches += 1;
@@ -135,7 +139,7 @@ async function verifier() {
   }
 }
 
-console.log(`Drive load on loopback: ${PROCESSES} web process(es), ${OPERATORS} operators at 10 Hz (batches of ${BATCH}), ${SECONDS} s, ${VERIFY_RPS} verification look-ups/s …`);
+console.log(`Drive load on loopback: ${PROCESSES} web process(es)${ROUND_ROBIN ? ' without sticky sessions' : ''}, ${OPERATORS} operators at 10 Hz (batches of ${BATCH}), ${SECONDS} s, ${VERIFY_RPS} verification look-ups/s …`);
 const wall0 = performance.now();
 await Promise.all([...cookies.map((c, i) => operator(c, i)), verifier()]);
 const wall = (performance.now() - wall0) / 1000;
