@@ -11,6 +11,7 @@ import {
 } from '../../shared/schemas';
 import { currentUser, guard } from '../auth/guard';
 import type { AppContext } from '../context';
+import { closedSignal } from '../http/closed-signal';
 import { readUploads } from '../http/upload';
 import { parseBody, parseParams } from '../http/validate';
 import {
@@ -51,13 +52,13 @@ export function fleetRoutes(ctx: AppContext) {
   router.post(`${base}/fleet-calibration/alpha-fit`, ownEmployer, async (req, res) => {
     const { poses } = await readUploads(req, res, [FLEET_UPLOADS.poses]);
     parseBody(noFields, req);
-    res.json({ alphaFit: await previewAlphaFit(poses) });
+    res.json({ alphaFit: await previewAlphaFit(poses, closedSignal(res)) });
   });
 
   router.post(`${base}/fleet-profiles`, ownEmployer, async (req, res) => {
     const files = await readUploads(req, res, [FLEET_UPLOADS.runs, FLEET_UPLOADS.poses]);
     const fields = parseBody(fleetProfileFieldsSchema, req);
-    res.status(201).json({ profile: await createFleetProfile(ctx, currentUser(req), orgId(req), fields, files) });
+    res.status(201).json({ profile: await createFleetProfile(ctx, currentUser(req), orgId(req), fields, files, closedSignal(res)) });
   });
 
   router.get(`${base}/fleet-profiles`, ownEmployerOrAdmin, async (req, res) => {

@@ -82,9 +82,9 @@ export function previewUmbmark(ctx: AppContext, fields: FleetRobotFields, runs: 
 }
 
 /** The alpha-fit preview; nothing is stored. */
-export function previewAlphaFit(poses: UploadedFile | undefined): Promise<AlphaFitView> {
+export function previewAlphaFit(poses: UploadedFile | undefined, signal?: AbortSignal): Promise<AlphaFitView> {
   if (!poses) throw attachThe(FLEET_UPLOADS.poses);
-  return alphaFitFromFile(poses.bytes);
+  return alphaFitFromFile(poses.bytes, signal);
 }
 
 /** Every n-th item so that at most `max` remain, spread evenly over the whole list. */
@@ -109,13 +109,13 @@ export function alphaFitView(report: AlphaFitReport): AlphaFitView {
  * calibration_rows. The bootstrap is seeded with the file's SHA-256, so the same file always gives
  * the same intervals. Runs in a worker thread (alpha-fit-runner.ts).
  */
-export async function alphaFitFromFile(file: Buffer): Promise<AlphaFitView> {
+export async function alphaFitFromFile(file: Buffer, signal?: AbortSignal): Promise<AlphaFitView> {
   const what = FLEET_UPLOADS.poses.what;
   const { header, records, rowNumbers } = readCalibrationCsv(file, what, FLEET_POSES_MAX_ROWS);
   const poses = pairedPosesFromCsvRecords(records, { header, rowNumbers });
   if (poses.problems.length > 0) throw calibrationRowsError(poses.problems, what);
   const seed = createHash('sha256').update(file).digest('hex');
-  const report = await runAlphaFit({ odometry: poses.odometry, reference: poses.reference, resamples: FLEET_BOOTSTRAP_RESAMPLES, seed });
+  const report = await runAlphaFit({ odometry: poses.odometry, reference: poses.reference, resamples: FLEET_BOOTSTRAP_RESAMPLES, seed }, signal);
   return alphaFitView(report);
 }
 
@@ -223,13 +223,14 @@ export async function createFleetProfile(
   organizationId: number,
   fields: FleetProfileFields,
   files: { runs?: UploadedFile; poses?: UploadedFile },
+  signal?: AbortSignal,
 ): Promise<FleetProfileDetail> {
   const { robot, base } = fleetRobotFor(ctx.content, fields);
   if (!files.runs && !files.poses) {
     throw new HttpError(400, 'no_file', 'Attach the UMBmark runs (field "runs"), the paired poses (field "poses"), or both.');
   }
   const umbmark = files.runs ? umbmarkFromFile(robot, files.runs.bytes) : null;
-  const alphaFit = files.poses ? await alphaFitFromFile(files.poses.bytes) : null;
+  const alphaFit = files.poses ? await alphaFitFromFile(files.poses.bytes, signal) : null;
   const driftProfile = effectiveDriftProfile(base, umbmark, alphaFit);
   const id = randomUUID();
   return ctx.sequelize.transaction(async (transaction) => {
