@@ -6,10 +6,10 @@
 import { randomBytes } from 'node:crypto';
 import { parse } from 'csv-parse/sync';
 import { Op, QueryTypes, UniqueConstraintError, type Transaction } from 'sequelize';
-import { credentialNumberFrom, credentialStatus, normalizeCredentialNumber, signedCredentialText, type CredentialStatus } from '../../shared/credentials';
+import { credentialNumberFrom, credentialStatus, normalizeCredentialNumber, signedCredentialText } from '../../shared/credentials';
 import type { AppContext } from '../context';
 import { Credential, Organization, User } from '../db/models';
-import type { CredentialTrial } from '../db/models/credential';
+import type { BulkCheckRow, CredentialTrial, CredentialView, Verification } from '../../shared/schemas';
 import { escapeHtml } from './mailer';
 import { csvCell } from '../http/csv';
 import { HttpError, notFound } from '../http/errors';
@@ -19,23 +19,6 @@ import { signatureCode, signatureValid, signText } from './signing';
 
 /** Days before expiry; the nearer one first, so a credential found late gets only the nearer reminder. */
 export const REMINDER_DAYS = [14, 60] as const;
-
-export interface CredentialView {
-  id: number;
-  number: string;
-  holderName: string;
-  userId: number;
-  organizationId: number | null;
-  organizationName: string | null;
-  levelId: string;
-  levelName: string;
-  trials: CredentialTrial[];
-  issuedAt: string;
-  expiresAt: string;
-  status: CredentialStatus;
-  revokedAt: string | null;
-  revokeReason: string | null;
-}
 
 const signedText = (c: Credential) =>
   signedCredentialText({ number: c.number, holderName: c.holderName, levelId: c.levelId, issuedAt: c.issuedAt.toISOString(), expiresAt: c.expiresAt.toISOString() });
@@ -178,22 +161,6 @@ export async function credentialPdfFor(ctx: AppContext, actor: Express.User, id:
   return { number: credential.number, pdf };
 }
 
-export interface Verification {
-  found: boolean;
-  number?: string;
-  holderName?: string;
-  levelName?: string;
-  organizationName?: string | null;
-  issuedAt?: string;
-  expiresAt?: string;
-  status?: CredentialStatus;
-  revokedAt?: string | null;
-  /** The stored signature matches the credential's fields under Driftproof's key. */
-  signatureValid?: boolean;
-  /** When the signature printed on the certificate (the QR link) is given: whether it is the one on record. */
-  printedSignatureMatches?: boolean;
-}
-
 /** Public verification. An unknown or malformed number says only "not found". */
 export async function verifyCredential(ctx: AppContext, input: string, printedSignature?: string): Promise<Verification> {
   const number = normalizeCredentialNumber(input);
@@ -215,26 +182,12 @@ export async function verifyCredential(ctx: AppContext, input: string, printedSi
   };
 }
 
-export interface BulkResult {
-  line: number;
-  number: string;
-  name: string | null;
-  found: boolean;
-  status: CredentialStatus | null;
-  holderName: string | null;
-  levelName: string | null;
-  expiresAt: string | null;
-  /** Whether the given name matches the holder (case and accents aside); null when no name was given. */
-  nameMatches: boolean | null;
-  signatureValid: boolean | null;
-}
-
 const foldName = (s: string) => s.normalize('NFD').replace(/\p{M}/gu, '').toLowerCase().replace(/\s+/g, ' ').trim();
 
 export const BULK_MAX_ROWS = 1000;
 
 /** HR bulk verification of a CSV of numbers (column "number", optional column "name"). */
-export async function bulkVerify(ctx: AppContext, file: Buffer): Promise<BulkResult[]> {
+export async function bulkVerify(ctx: AppContext, file: Buffer): Promise<BulkCheckRow[]> {
   let records: Record<string, string>[];
   try {
     records = parse(file, { columns: (h: string[]) => h.map((c) => c.trim().toLowerCase()), skip_empty_lines: true, trim: true, bom: true });
@@ -243,28 +196,22 @@ export async function bulkVerify(ctx: AppContext, file: Buffer): Promise<BulkRes
   }
   if (records.length === 0 || !('number' in records[0])) throw new HttpError(400, 'bad_columns', 'The file needs a header with a "number" column (and optionally "name").');
   if (records.length > BULK_MAX_ROWS) throw new HttpError(400, 'too_many_rows', `At most ${BULK_MAX_ROWS} numbers a file.`);
-  const results: BulkResult[] = [];
+  const results: BulkCheckRow[] = [];
   for (const [i, r] of records.entries()) {
     const v = await verifyCredential(ctx, r.number ?? '');
     const name = r.name ? r.name : null;
-    results.push({
-      line: i + 2,
-      number: r.number ?? '',
-      name,
-      found: v.found,
-      status: v.status ?? null,
-      holderName: v.holderName ?? null,
-      levelName: v.levelName ?? null,
-      expiresAt: v.expiresAt ?? null,
-      nameMatches: name && v.found ? foldName(name) === foldName(v.holderName!) : null,
-      signatureValid: v.signatureValid ?? null,
-    });
+    const row = { line: i + 2, number: r.number ?? '', name };
+    results.push(
+      v.found
+        ? { ...row, found: true, status: v.status, holderName: v.holderName, levelName: v.levelName, expiresAt: v.expiresAt, nameMatches: name ? foldName(name) === foldName(v.holderName) : null, signatureValid: v.signatureValid }
+        : { ...row, found: false, status: null, holderName: null, levelName: null, expiresAt: null, nameMatches: null, signatureValid: null },
+    );
   }
   return results;
 }
 
 
-export function bulkResultsCsv(results: BulkResult[]): string {
+export function bulkResultsCsv(results: BulkCheckRow[]): string {
   const header = 'line,number,name,found,status,holder_name,level,expires_at,name_matches,signature_valid';
   const rows = results.map((r) =>
     [String(r.line), r.number, r.name ?? '', r.found ? 'yes' : 'no', r.status ?? '', r.holderName ?? '', r.levelName ?? '', r.expiresAt?.slice(0, 10) ?? '', r.nameMatches === null ? '' : r.nameMatches ? 'yes' : 'no', r.signatureValid === null ? '' : r.signatureValid ? 'yes' : 'no']

@@ -10,3 +10,4 @@ export * from './attempts';
 export * from './reviews';
 export * from './employers';
 export * from './fleet';
+export * from './credentials';

@@ -30,6 +30,11 @@ import type {
   PublicLevel,
   PublicTrial,
   RobotSummary,
+  BulkCheckRow,
+  CredentialCheck,
+  CredentialStatus,
+  CredentialTrial,
+  CredentialView,
   TrialSummary,
   PublicUser,
   ReviewInfo,
@@ -46,7 +51,7 @@ import type {
   VerdictInput,
 } from '@shared/schemas';
 
-export type { RobotSummary, TrialSummary };
+export type { BulkCheckRow, CredentialCheck, CredentialStatus, CredentialTrial, CredentialView, RobotSummary, TrialSummary };
 import type { Command } from '@shared/sim';
 
 /** Codes the client itself gives to failures that never reached a JSON answer. */
@@ -538,68 +543,7 @@ export const fleetApi = {
 };
 
 // ---------------------------------------------------------------------------------------
-// Credentials and verification (the shapes of server/services/credentials.ts, which the client
-// cannot import).
-
-export type CredentialStatus = 'active' | 'expired' | 'revoked';
-
-/** One required trial of the level, passed in an exam drive. */
-export interface CredentialTrial {
-  trialId: string;
-  title: string;
-  attemptId: string;
-  passedAt: string;
-}
-
-/** A credential as GET /api/credentials lists it. */
-export interface CredentialView {
-  id: number;
-  number: string;
-  holderName: string;
-  userId: number;
-  organizationId: number | null;
-  organizationName: string | null;
-  levelId: string;
-  levelName: string;
-  trials: CredentialTrial[];
-  issuedAt: string;
-  expiresAt: string;
-  status: CredentialStatus;
-  revokedAt: string | null;
-  revokeReason: string | null;
-}
-
-/** The public answer for a number that exists (an unknown number answers 404 `not_found`). */
-export interface CredentialCheck {
-  found: true;
-  number: string;
-  holderName: string;
-  levelName: string;
-  organizationName: string | null;
-  issuedAt: string;
-  expiresAt: string;
-  status: CredentialStatus;
-  revokedAt: string | null;
-  /** The record matches its signature under Driftproof's key. */
-  signatureValid: boolean;
-  /** Only when the QR link's signature was sent: whether it is the one on record. */
-  printedSignatureMatches?: boolean;
-}
-
-/** One row of a bulk verification, in the order of the file (`line` counts the header as 1). */
-export interface BulkCheckRow {
-  line: number;
-  number: string;
-  name: string | null;
-  found: boolean;
-  status: CredentialStatus | null;
-  holderName: string | null;
-  levelName: string | null;
-  expiresAt: string | null;
-  /** Null when the row gave no name (or the number was not found). */
-  nameMatches: boolean | null;
-  signatureValid: boolean | null;
-}
+// Credentials and verification (their shapes are in shared/schemas/credentials.ts).
 
 /**
  * A multipart POST; answers the raw response when it is a success. Failures become ApiErrors

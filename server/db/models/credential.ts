@@ -1,11 +1,5 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
-
-export interface CredentialTrial {
-  trialId: string;
-  title: string;
-  attemptId: string;
-  passedAt: string;
-}
+import type { CredentialTrial } from '../../../shared/schemas';
 
 /** A certificate issued for a passed level: numbered, signed, and revocable. */
 export class Credential extends Model<InferAttributes<Credential>, InferCreationAttributes<Credential>> {
