@@ -93,15 +93,25 @@ export function thinEvenly<T>(items: readonly T[], max: number): T[] {
   return Array.from({ length: max }, (_, i) => items[Math.floor((i * items.length) / max)]);
 }
 
+/** Why fitted alphas cannot make a fleet profile (one above FLEET_ALPHA_MAX), or null. */
+export function alphasTooLarge(alphas: readonly number[]): string | null {
+  if (!alphas.some((a) => a > FLEET_ALPHA_MAX)) return null;
+  const list = alphas.map((a, i) => `a${i + 1} = ${a.toPrecision(3)}`).join(', ');
+  return `The poses give ${list}; a fleet profile needs each at most ${FLEET_ALPHA_MAX}, where the drift is already as large as the motion itself. Check that both tracks are in metres and radians, in the same frame, and sampled at the same moments.`;
+}
+
 /**
  * The alpha-fit report as the API shows and stores it: the residuals of each noise term thinned
- * on their own (so each plot keeps its share, over all the steps), with the total count.
+ * on their own (so each plot keeps its share, over all the steps), with the total count;
+ * a fit too large to save says so first among its warnings.
  */
 export function alphaFitView(report: AlphaFitReport): AlphaFitView {
   const components: NoiseComponent[] = ['rot1', 'trans', 'rot2'];
   const perComponent = Math.floor(FLEET_RESIDUALS_MAX / components.length);
   const residuals = components.flatMap((c) => thinEvenly(report.residuals.filter((r) => r.component === c), perComponent));
-  return { ...report, residuals, residualsTotal: report.residuals.length };
+  const tooLarge = alphasTooLarge(report.alphas);
+  const warnings = tooLarge ? [`${tooLarge} This fit cannot be saved as a fleet profile.`, ...report.warnings] : report.warnings;
+  return { ...report, residuals, residualsTotal: report.residuals.length, warnings };
 }
 
 /**
@@ -131,11 +141,8 @@ export function effectiveDriftProfile(base: Robot, umbmark: UmbmarkView | null, 
     const message = `The runs give Ed = ${ed.toFixed(4)} and Eb = ${eb.toFixed(4)}; a fleet profile needs Ed between 0.9 and 1.1 and Eb between 0.8 and 1.2. Check that the errors are in metres, measured as actual minus odometry, with the right direction on each run.`;
     throw new HttpError(400, 'drift_out_of_range', message, { runs: message });
   }
-  if (alphaFit && alphaFit.alphas.some((a) => a > FLEET_ALPHA_MAX)) {
-    const list = alphaFit.alphas.map((a, i) => `a${i + 1} = ${a.toPrecision(3)}`).join(', ');
-    const message = `The poses give ${list}; a fleet profile needs each at most ${FLEET_ALPHA_MAX}, where the drift is already as large as the motion itself. Check that both tracks are in metres and radians, in the same frame, and sampled at the same moments.`;
-    throw new HttpError(400, 'drift_out_of_range', message, { poses: message });
-  }
+  const tooLarge = alphaFit && alphasTooLarge(alphaFit.alphas);
+  if (tooLarge) throw new HttpError(400, 'drift_out_of_range', tooLarge, { poses: tooLarge });
   return { alphas: alphaFit ? [...alphaFit.alphas] : [...base.assumedProfile.alphas], ed, eb };
 }
 

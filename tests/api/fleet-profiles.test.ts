@@ -303,6 +303,8 @@ describe('fleet profiles', () => {
       const y = 0.05 * Math.sin(i);
       return [x, y, 0.1 * Math.sin(i / 3), 100 * x, 100 * y, 0.1 * Math.sin(i / 3)].map((v) => v.toFixed(4)).join(',');
     });
+    const preview = await employer.post(`${ORG}/fleet-calibration/alpha-fit`).attach('poses', Buffer.from([header, ...rows].join('\n')), 'p.csv').expect(200);
+    expect(preview.body.alphaFit.warnings[0]).toMatch(/at most 1,.*cannot be saved as a fleet profile/);
     const units = await saveProfile({ poses: [[header, ...rows].join('\n'), 'p.csv'] }).expect(400);
     expect(units.body.error.code).toBe('drift_out_of_range');
     expect(units.body.error.fields.poses).toMatch(/at most 1,/);
