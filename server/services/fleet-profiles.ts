@@ -290,7 +290,7 @@ export async function setPracticeTrials(ctx: AppContext, actor: Actor, organizat
     const problems = trialIds.flatMap((trialId) => {
       const trial = ctx.content.trials.get(trialId);
       if (!trial) return [`No trial "${trialId}".`];
-      if (trial.robotId !== profile.robot.baseRobotId) {
+      if (!drivesProfileRobot(ctx.content, trialId, profile)) {
         return [`"${trial.title}" is driven with the ${ctx.content.robots.get(trial.robotId)!.name}; this profile is for the ${profile.robot.name}.`];
       }
       return [];
